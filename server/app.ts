@@ -1,0 +1,82 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import passport from 'passport';
+import type { Sequelize } from 'sequelize';
+import type { Config } from './config.js';
+import { securityLogger } from './auth/security-log.js';
+import { installSessions } from './auth/session.js';
+import { errorHandler, unknownRoute } from './http/errors.js';
+import { accountsRouter } from './modules/accounts/accounts.router.js';
+import { adminUsersRouter } from './modules/admin-users/admin-users.router.js';
+import { authRouter } from './modules/auth/auth.router.js';
+import { healthRouter } from './modules/health/health.router.js';
+import { territoriesRouter } from './modules/territories/territories.router.js';
+
+export interface AppDeps {
+  sequelize: Sequelize;
+  config: Config;
+  /** Folder with the built client; omitted in API-only tests. */
+  clientDir?: string;
+  log?: (msg: string, err?: unknown) => void;
+}
+
+/** Builds the Express app without listening, so tests can drive it with Supertest. */
+export function createApp({ sequelize, config, clientDir, log = defaultLog }: AppDeps): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: true,
+        directives: {
+          'default-src': ["'self'"],
+          'script-src': ["'self'"],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'font-src': ["'self'"],
+          'connect-src': ["'self'"],
+          'object-src': ["'none'"],
+          'frame-ancestors': ["'none'"],
+          'base-uri': ["'self'"],
+          'form-action': ["'self'"],
+          'upgrade-insecure-requests': config.COOKIE_SECURE ? [] : null,
+        },
+      },
+      strictTransportSecurity: config.COOKIE_SECURE ? undefined : false,
+    }),
+  );
+  const securityLog = securityLogger(sequelize);
+
+  app.use('/api/health', healthRouter(sequelize));
+  app.use('/api', express.json({ limit: '1mb' }));
+  app.use('/api', (_req, res, next) => {
+    res.set('Cache-Control', 'no-store');
+    next();
+  });
+  const { csrf } = installSessions(app, sequelize, config, securityLog);
+  app.use(passport.initialize());
+  app.use('/api', csrf);
+  app.use('/api/auth', authRouter(sequelize, config, securityLog));
+  app.use('/api/territories', territoriesRouter());
+  app.use('/api/accounts', accountsRouter());
+  app.use('/api/admin/users', adminUsersRouter(sequelize, securityLog));
+  app.use('/api', unknownRoute);
+
+  if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h', setHeaders: immutableAssets }));
+    // The client routes itself: any other GET gets the app's page.
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  }
+  app.use(errorHandler(log));
+  return app;
+}
+
+function immutableAssets(res: express.Response, file: string) {
+  if (file.includes(`${path.sep}assets${path.sep}`)) res.setHeader('Cache-Control', 'public, max-age=31536000, immutable');
+}
+
+function defaultLog(msg: string, err?: unknown) {
+  console.error(`[${new Date().toISOString()}] ${msg}`, err ?? '');
+}

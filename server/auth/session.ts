@@ -1,0 +1,125 @@
+import { randomBytes, timingSafeEqual } from 'node:crypto';
+import bcrypt from 'bcryptjs';
+import type { Express, RequestHandler } from 'express';
+import session from 'express-session';
+import connectSessionSequelize from 'connect-session-sequelize';
+import passport from 'passport';
+import { Strategy as LocalStrategy } from 'passport-local';
+import type { Sequelize } from 'sequelize';
+import type { SessionUser } from '../../shared/schemas/auth.js';
+import type { Config } from '../config.js';
+import { Territory, User } from '../db/models/index.js';
+import { AppError } from '../http/errors.js';
+import type { SecurityLog } from './security-log.js';
+
+declare module 'express-session' {
+  interface SessionData {
+    csrfToken?: string;
+    startedAt?: number;
+    lastSeenAt?: number;
+  }
+}
+
+export const SESSION_COOKIE = 'rowpath.sid';
+// A real bcrypt hash of a random string, compared when the e-mail is unknown so that unknown
+// and known accounts take the same time to refuse.
+const DUMMY_HASH = bcrypt.hashSync(randomBytes(12).toString('hex'), 10);
+
+export async function loadSessionUser(id: number): Promise<SessionUser | null> {
+  const user = await User.findByPk(id, { include: [{ model: Territory, as: 'territories', attributes: ['id'], through: { attributes: [] } }] });
+  if (!user || user.disabled) return null;
+  const territories = (user as unknown as { territories: { id: number }[] }).territories ?? [];
+  return {
+    id: user.id,
+    email: user.email,
+    name: user.name,
+    role: user.role,
+    territoryIds: territories.map((t) => t.id).sort((a, b) => a - b),
+    accountId: user.accountId,
+  };
+}
+
+export async function verifyPassword(email: string, password: string): Promise<User | null> {
+  const user = await User.findOne({ where: { email } });
+  const ok = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);
+  return user && ok && !user.disabled ? user : null;
+}
+
+export function newCsrfToken() {
+  return randomBytes(24).toString('base64url');
+}
+
+/** Sessions in MariaDB, Passport on top, idle and absolute lifetimes, and the CSRF check. */
+export function installSessions(app: Express, sequelize: Sequelize, config: Config, securityLog: SecurityLog) {
+  const SequelizeStore = connectSessionSequelize(session.Store);
+  const idleMs = config.SESSION_IDLE_MINUTES * 60_000;
+  const maxMs = config.SESSION_MAX_HOURS * 3_600_000;
+  const store = new SequelizeStore({
+    db: sequelize,
+    table: 'Session',
+    // Expired rows are swept every 15 minutes; each request checks the lifetimes itself.
+    checkExpirationInterval: 15 * 60_000,
+    disableTouch: true,
+    extendDefaultFields: (defaults: Record<string, unknown>, s: { passport?: { user?: number } }) => ({
+      ...defaults,
+      userId: s.passport?.user ?? null,
+    }),
+  } as unknown as ConstructorParameters<typeof SequelizeStore>[0]);
+
+  if (config.TRUST_PROXY) app.set('trust proxy', config.TRUST_PROXY);
+  app.use(
+    session({
+      name: SESSION_COOKIE,
+      secret: config.sessionSecret,
+      store,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: { httpOnly: true, sameSite: 'lax', secure: config.COOKIE_SECURE, maxAge: idleMs },
+    }),
+  );
+
+  // Idle and absolute lifetimes are enforced here, on the server, whatever the cookie says.
+  // lastSeenAt is written at most once a minute so that reads do not each cost a session write.
+  const lifetimes: RequestHandler = (req, _res, next) => {
+    const s = req.session;
+    if (!s || !(s as unknown as { passport?: { user?: number } }).passport?.user) return next();
+    const now = Date.now();
+    const expired = (s.startedAt && now - s.startedAt > maxMs) || (s.lastSeenAt && now - s.lastSeenAt > idleMs);
+    if (expired) {
+      const userId = (s as unknown as { passport: { user: number } }).passport.user;
+      securityLog('session_expired', { userId, ip: req.ip });
+      return s.regenerate((err) => next(err));
+    }
+    if (!s.lastSeenAt || now - s.lastSeenAt > Math.min(60_000, idleMs / 30)) s.lastSeenAt = now;
+    next();
+  };
+  app.use(lifetimes);
+
+  passport.use(
+    new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
+      verifyPassword(email, password)
+        .then((u) => (u ? loadSessionUser(u.id) : null))
+        .then((u) => done(null, u ?? false), done);
+    }),
+  );
+  passport.serializeUser((user, done) => done(null, (user as { id: number }).id));
+  passport.deserializeUser((id: number, done) => {
+    // A disabled or deleted user is simply not signed in any more.
+    loadSessionUser(id).then((u) => done(null, u ?? false), done);
+  });
+  app.use(passport.session());
+
+  const csrf: RequestHandler = (req, _res, next) => {
+    if (['GET', 'HEAD', 'OPTIONS'].includes(req.method)) return next();
+    const sent = req.get('x-csrf-token') ?? '';
+    const expected = req.session?.csrfToken ?? '';
+    const ok = sent.length > 0 && sent.length === expected.length && timingSafeEqual(Buffer.from(sent), Buffer.from(expected));
+    if (!ok) {
+      securityLog('csrf_refused', { userId: req.user?.id ?? null, ip: req.ip, detail: `${req.method} ${req.path}` });
+      return next(new AppError('csrf', 403, 'The form has expired. Reload the page and try again.'));
+    }
+    next();
+  };
+  return { store, csrf };
+}
