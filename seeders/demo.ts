@@ -5,7 +5,9 @@ import bcrypt from 'bcryptjs';
 import type { Sequelize } from 'sequelize';
 import type { AcresByCrop } from '../shared/schemas/accounts.js';
 import type { Role } from '../shared/schemas/auth.js';
-import { Account, Territory, User, UserTerritory } from '../server/db/models/index.js';
+import { Account, Component, Territory, User, UserTerritory } from '../server/db/models/index.js';
+import { CATALOG } from './demo-catalog.js';
+import { catalogIds, emptyFleet, generateFleet, insertFleet, mulberry32, nextIds } from './fleet-generator.js';
 
 export const DEMO_PASSWORD = 'rowpath-demo';
 export const DEALERSHIP = {
@@ -60,18 +62,6 @@ const SURNAMES = [
 ];
 const SUFFIXES = ['Farms', 'Acres', 'Family Farms', 'Grain', 'Land & Cattle', 'Ag Partners', 'Brothers Farms', 'Ridge Farms'];
 
-/** Small deterministic PRNG so the demo is the same on every machine. */
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 export async function seedDemo(sequelize: Sequelize) {
   const rand = mulberry32(20261201);
   const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 10);
@@ -121,5 +111,14 @@ export async function seedDemo(sequelize: Sequelize) {
     const created = await Account.bulkCreate(accounts, { transaction });
     // The demo grower runs the first account (Hesketh Farms, near Mankato, Republican Bend).
     await users.get('grower@rowpath.test')!.update({ accountId: created[0].id }, { transaction });
+
+    await Component.bulkCreate(CATALOG, { transaction });
+    const parts = await catalogIds(transaction);
+    const ids = await nextIds(sequelize);
+    const fleet = emptyFleet();
+    created.forEach((account, i) =>
+      generateFleet(rand, { id: account.id, name: account.name, lat: Number(account.lat), lng: Number(account.lng), surname: SURNAMES[i] }, parts, ids, fleet),
+    );
+    await insertFleet(fleet, transaction);
   });
 }

@@ -9,6 +9,8 @@ import { securityLogger } from './auth/security-log.js';
 import { installSessions } from './auth/session.js';
 import { errorHandler, unknownRoute } from './http/errors.js';
 import { accountsRouter } from './modules/accounts/accounts.router.js';
+import { componentsRouter } from './modules/fleet/components.router.js';
+import { fleetRouter } from './modules/fleet/fleet.router.js';
 import { adminUsersRouter } from './modules/admin-users/admin-users.router.js';
 import { authRouter } from './modules/auth/auth.router.js';
 import { healthRouter } from './modules/health/health.router.js';
@@ -60,7 +62,9 @@ export function createApp({ sequelize, config, clientDir, log = defaultLog }: Ap
   app.use('/api', csrf);
   app.use('/api/auth', authRouter(sequelize, config, securityLog));
   app.use('/api/territories', territoriesRouter());
-  app.use('/api/accounts', accountsRouter());
+  app.use('/api/accounts', accountsRouter(sequelize));
+  app.use('/api/components', componentsRouter(sequelize));
+  app.use('/api', fleetRouter(sequelize));
   app.use('/api/admin/users', adminUsersRouter(sequelize, securityLog));
   app.use('/api', unknownRoute);
 

@@ -73,8 +73,8 @@ export async function makeUser(role: Role, opts: { territoryIds?: number[]; acco
 
 /** A Supertest agent that keeps cookies, with a fresh X-Forwarded-For address so that the
  * per-IP sign-in counter of one test never slows another. */
-export function client(app: Express, ip = `10.${rand255()}.${rand255()}.${rand255()}`) {
-  const agent = request.agent(app);
+export function client(app: Express | string, ip = `10.${rand255()}.${rand255()}.${rand255()}`) {
+  const agent = request.agent(app as Express);
   let csrf = '';
   const api = {
     agent,
@@ -101,9 +101,9 @@ export function client(app: Express, ip = `10.${rand255()}.${rand255()}.${rand25
   return api;
 }
 
-export async function signedIn(app: Express, user: { email: string }) {
+export async function signedIn(app: Express | string, user: { email: string }, password = PASSWORD) {
   const c = client(app);
-  const res = await c.signIn(user.email);
+  const res = await c.signIn(user.email, password);
   if (res.status !== 200) throw new Error(`sign-in failed for ${user.email}: ${res.status} ${JSON.stringify(res.body)}`);
   return c;
 }

@@ -1,6 +1,9 @@
 import { Op, type Order, type WhereOptions } from 'sequelize';
 import type { AccountListQuery } from '../../../shared/schemas/accounts.js';
-import { Account, Territory, User } from '../../db/models/index.js';
+import { Account, AuditEvent, Contact, FarmSite, Planter, Territory, Tractor, User } from '../../db/models/index.js';
+import { literal } from 'sequelize';
+import { plain } from '../fleet/plain.js';
+import { PLANTER_NUMBERS, TRACTOR_NUMBERS } from '../fleet/planters.service.js';
 
 const include = [
   { model: Territory, as: 'territory', attributes: ['id', 'name'] },
@@ -58,4 +61,38 @@ export async function listAccounts(scope: WhereOptions, query: AccountListQuery)
 export async function findAccount(scope: WhereOptions, id: number) {
   const account = await Account.findOne({ where: { [Op.and]: [scope, { id }] }, include });
   return account ? toDetail(account as Loaded) : null;
+}
+
+/**
+ * The account with its whole fleet summary. A fixed number of queries whatever the fleet's size
+ * (one per kind of record), never one per planter.
+ */
+export async function findAccountWithFleet(scope: WhereOptions, id: number) {
+  const account = await findAccount(scope, id);
+  if (!account) return null;
+  const [contacts, farmSites, tractors, planters] = await Promise.all([
+    Contact.findAll({ where: { accountId: id }, order: [['name', 'ASC']] }),
+    FarmSite.findAll({ where: { accountId: id }, order: [['name', 'ASC']] }),
+    Tractor.findAll({ where: { accountId: id }, order: [['name', 'ASC']] }),
+    Planter.findAll({
+      where: { accountId: id },
+      attributes: { include: [[literal("(SELECT COUNT(*) FROM installs i WHERE i.planter_id = `Planter`.`id` AND i.status = 'installed')"), 'installCount']] },
+      order: [['name', 'ASC']],
+    }),
+  ]);
+  return {
+    ...account,
+    contacts: contacts.map((c) => plain(c)),
+    farmSites: farmSites.map((f) => plain(f, ['lat', 'lng'])),
+    tractors: tractors.map((t) => plain(t, TRACTOR_NUMBERS)),
+    planters: planters.map((p) => ({ ...plain(p, PLANTER_NUMBERS), installCount: Number(p.get('installCount')) })),
+  };
+}
+
+export async function accountAudit(id: number, limit = 200) {
+  const rows = await AuditEvent.findAll({ where: { accountId: id }, order: [['at', 'DESC'], ['id', 'DESC']], limit });
+  const userIds = [...new Set(rows.map((r) => r.userId).filter((u): u is number => u !== null))];
+  const users = userIds.length ? await User.findAll({ where: { id: userIds }, attributes: ['id', 'name'] }) : [];
+  const names = new Map(users.map((u) => [u.id, u.name]));
+  return rows.map((r) => ({ id: r.id, at: r.at, entity: r.entity, entityId: r.entityId, action: r.action, summary: r.summary, changes: r.changes, userId: r.userId, userName: r.userId ? names.get(r.userId) ?? null : null }));
 }

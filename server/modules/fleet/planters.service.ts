@@ -1,0 +1,253 @@
+import { Op, literal, type Order, type Sequelize, type Transaction, type WhereOptions } from 'sequelize';
+import type { SessionUser } from '../../../shared/schemas/auth.js';
+import type { InstallInput, PlanterInput, PlanterListQuery } from '../../../shared/schemas/fleet.js';
+import { accountScope } from '../../auth/access.js';
+import { Account, Component, FarmSite, Install, Planter, Toolbar, Tractor } from '../../db/models/index.js';
+import { notFound, validationError } from '../../http/errors.js';
+import { accountFor, assertVersion, audit, diff, mapLockError } from './fleet-access.js';
+import { plain } from './plain.js';
+
+export const PLANTER_NUMBERS = ['rowSpacingIn', 'seedCapacityUnits', 'liquidTankGallons', 'dryCapacityLb'];
+export const TOOLBAR_NUMBERS = ['sizeFt'];
+export const INSTALL_NUMBERS = ['pricePaidUsd'];
+export const COMPONENT_NUMBERS = ['priceUsd', 'labourHours', 'expectedLifeYears', 'hydraulicGpm', 'ratedMaxSpeedMph', 'maxSeedsPerSecond'];
+export const TRACTOR_NUMBERS = ['hydraulicFlowGpm', 'ptoHp'];
+
+const label = (p: { name: string; rows: number; rowSpacingIn: number }) => `${p.name} (${p.rows} × ${Number(p.rowSpacingIn)} in)`;
+
+async function checkOwnedRefs(accountId: number, input: { tractorId: number | null; farmSiteId: number | null }, transaction: Transaction) {
+  const fields: Record<string, string> = {};
+  if (input.tractorId && !(await Tractor.findOne({ where: { id: input.tractorId, accountId }, attributes: ['id'], transaction })))
+    fields.tractorId = 'That tractor is not in this operation';
+  if (input.farmSiteId && !(await FarmSite.findOne({ where: { id: input.farmSiteId, accountId }, attributes: ['id'], transaction })))
+    fields.farmSiteId = 'That farm site is not in this operation';
+  if (Object.keys(fields).length) throw validationError(fields);
+}
+
+/** Staff of the account's territory. Creates the planter and its toolbars in one transaction. */
+export async function createPlanter(sequelize: Sequelize, user: SessionUser, accountId: number, input: PlanterInput) {
+  const id = await sequelize.transaction(async (transaction) => {
+    await accountFor(user, accountId, 'edit', transaction);
+    await checkOwnedRefs(accountId, input, transaction);
+    const { toolbars, ...fields } = input;
+    const planter = await Planter.create({ ...fields, accountId }, { transaction });
+    await Toolbar.bulkCreate(
+      toolbars.map((t, i) => ({ planterId: planter.id, position: i + 1, name: t.name, sizeFt: t.sizeFt, firstRow: t.firstRow, lastRow: t.lastRow })),
+      { transaction },
+    );
+    await audit(transaction, { accountId, userId: user.id, entity: 'planter', entityId: planter.id, action: 'create', summary: `Added planter ${label(input)}` });
+    return planter.id;
+  });
+  return getPlanter(user, id);
+}
+
+/** Anyone who may see the account: the planter with its toolbars, tractor and every install. */
+export async function getPlanter(user: SessionUser, id: number) {
+  const planter = await Planter.findByPk(id);
+  if (!planter) throw notFound('That planter');
+  const account = await accountFor(user, planter.accountId, 'read');
+  const [toolbars, installs, tractor] = await Promise.all([
+    Toolbar.findAll({ where: { planterId: id }, order: [['position', 'ASC']] }),
+    Install.findAll({ where: { planterId: id }, include: [{ model: Component, as: 'component' }], order: [['installDate', 'ASC'], ['id', 'ASC']] }),
+    planter.tractorId ? Tractor.findByPk(planter.tractorId) : Promise.resolve(null),
+  ]);
+  return {
+    ...plain(planter, PLANTER_NUMBERS),
+    accountName: account.name,
+    toolbars: toolbars.map((t) => plain(t, TOOLBAR_NUMBERS)),
+    tractor: tractor ? plain(tractor, TRACTOR_NUMBERS) : null,
+    installs: installs.map((i) => {
+      const row = plain(i, INSTALL_NUMBERS);
+      const component = (i as Install & { component?: Component }).component;
+      return { ...row, component: component ? plain(component, COMPONENT_NUMBERS) : null };
+    }),
+  };
+}
+export type PlanterDetail = Awaited<ReturnType<typeof getPlanter>>;
+
+/** Staff only. Replaces the planter's fields and toolbars; refuses changes that would strand installs. */
+export async function updatePlanter(sequelize: Sequelize, user: SessionUser, id: number, input: PlanterInput & { version: number }) {
+  await sequelize
+    .transaction(async (transaction) => {
+      const planter = await Planter.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+      if (!planter) throw notFound('That planter');
+      await accountFor(user, planter.accountId, 'edit', transaction);
+      assertVersion(planter.version, input.version);
+      await checkOwnedRefs(planter.accountId, input, transaction);
+      const { toolbars, version: _v, ...fields } = input;
+      const installs = await Install.findAll({ where: { planterId: id, status: 'installed' }, transaction });
+      const highest = Math.max(0, ...installs.map((i) => (i.scope === 'rows' ? i.rowTo ?? 0 : 0)));
+      if (highest > fields.rows) throw validationError({ rows: `Components are installed up to row ${highest}: remove or move them first` });
+      const existing = await Toolbar.findAll({ where: { planterId: id }, transaction });
+      const keep = new Set(toolbars.filter((t) => t.id).map((t) => t.id!));
+      const fieldsErr: Record<string, string> = {};
+      toolbars.forEach((t, i) => {
+        if (t.id && !existing.some((e) => e.id === t.id)) fieldsErr[`toolbars.${i}.id`] = 'That toolbar is not on this planter';
+      });
+      const dropped = existing.filter((e) => !keep.has(e.id));
+      const droppedInUse = dropped.filter((d) => installs.some((i) => i.toolbarId === d.id));
+      if (droppedInUse.length) fieldsErr.toolbars = `Components are installed on ${droppedInUse.map((d) => d.name).join(', ')}: remove them first`;
+      if (Object.keys(fieldsErr).length) throw validationError(fieldsErr);
+
+      const changes = diff(plain(planter, PLANTER_NUMBERS), fields);
+      planter.set(fields);
+      await planter.save({ transaction });
+      if (dropped.length) await Toolbar.destroy({ where: { id: dropped.map((d) => d.id) }, transaction });
+      for (const [i, t] of toolbars.entries()) {
+        const values = { position: i + 1, name: t.name, sizeFt: t.sizeFt, firstRow: t.firstRow, lastRow: t.lastRow };
+        if (t.id) await Toolbar.update(values, { where: { id: t.id }, transaction });
+        else await Toolbar.create({ planterId: id, ...values }, { transaction });
+      }
+      await audit(transaction, { accountId: planter.accountId, userId: user.id, entity: 'planter', entityId: id, action: 'update', summary: `Changed planter ${label(planter)}`, changes });
+    })
+    .catch(mapLockError);
+  return getPlanter(user, id);
+}
+
+export async function deletePlanter(sequelize: Sequelize, user: SessionUser, id: number) {
+  await sequelize.transaction(async (transaction) => {
+    const planter = await Planter.findByPk(id, { transaction });
+    if (!planter) throw notFound('That planter');
+    await accountFor(user, planter.accountId, 'edit', transaction);
+    await planter.destroy({ transaction });
+    await audit(transaction, { accountId: planter.accountId, userId: user.id, entity: 'planter', entityId: id, action: 'delete', summary: `Removed planter ${label(planter)}` });
+  });
+}
+
+const planterSort: Record<string, string> = { name: 'name', rows: 'rows', modelYear: 'modelYear' };
+
+/** Planters across the accounts the user may see, paged on the server. */
+export async function listPlanters(user: SessionUser, query: PlanterListQuery) {
+  const accountWhere: WhereOptions[] = [accountScope(user)];
+  const where: WhereOptions[] = [];
+  if (query.accountId) where.push({ accountId: query.accountId });
+  if (query.minRows) where.push({ rows: { [Op.gte]: query.minRows } });
+  if (query.q) {
+    const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    where.push({ [Op.or]: [{ name: { [Op.like]: like } }, { maker: { [Op.like]: like } }, { '$account.name$': { [Op.like]: like } }] });
+  }
+  const desc = query.sort.startsWith('-');
+  const key = query.sort.replace(/^-/, '');
+  const order: Order = key === 'account' ? [[{ model: Account, as: 'account' }, 'name', desc ? 'DESC' : 'ASC'], ['id', 'ASC']] : [[planterSort[key], desc ? 'DESC' : 'ASC'], ['id', 'ASC']];
+  const { rows, count } = await Planter.findAndCountAll({
+    where: { [Op.and]: where },
+    include: [{ model: Account, as: 'account', attributes: ['id', 'name', 'territoryId'], where: { [Op.and]: accountWhere }, required: true }],
+    attributes: {
+      include: [[literal('(SELECT COUNT(*) FROM installs i WHERE i.planter_id = `Planter`.`id` AND i.status = \'installed\')'), 'installCount']],
+    },
+    order,
+    limit: query.pageSize,
+    offset: (query.page - 1) * query.pageSize,
+    subQuery: false,
+  });
+  return {
+    items: rows.map((p) => {
+      const acc = (p as Planter & { account: Account }).account;
+      return {
+        id: p.id,
+        name: p.name,
+        maker: p.maker,
+        modelYear: p.modelYear,
+        rows: p.rows,
+        rowSpacingIn: Number(p.rowSpacingIn),
+        frameType: p.frameType,
+        accountId: acc.id,
+        accountName: acc.name,
+        installCount: Number(p.get('installCount')),
+      };
+    }),
+    total: count,
+  };
+}
+
+// ---------------- installs ----------------
+
+async function checkInstall(planter: Planter, input: InstallInput, transaction: Transaction) {
+  const component = await Component.findByPk(input.componentId, { transaction });
+  const fields: Record<string, string> = {};
+  if (!component) throw validationError({ componentId: 'No component in the catalog has that id' });
+  if (input.scope === 'rows') {
+    if (input.rowTo! > planter.rows) fields.rowTo = `The planter has only ${planter.rows} rows`;
+    if (input.rowFrom! > planter.rows) fields.rowFrom = `The planter has only ${planter.rows} rows`;
+  }
+  if (input.scope === 'toolbar' && !(await Toolbar.findOne({ where: { id: input.toolbarId!, planterId: planter.id }, attributes: ['id'], transaction })))
+    fields.toolbarId = 'That toolbar is not on this planter';
+  const perRow = input.scope === 'rows' || input.scope === 'all-rows';
+  if (component.unit === 'row' && !perRow) fields.scope = 'This part goes on row units: place it on a range of rows or on every row';
+  if (component.unit !== 'row' && perRow) fields.scope = `This part is fitted per ${component.unit}: place it on the ${component.unit}`;
+  if (Object.keys(fields).length) throw validationError(fields);
+  const quantity =
+    input.quantity ?? (input.scope === 'all-rows' ? planter.rows : input.scope === 'rows' ? input.rowTo! - input.rowFrom! + 1 : 1);
+  return {
+    component,
+    values: {
+      ...input,
+      toolbarId: input.scope === 'toolbar' ? input.toolbarId : null,
+      rowFrom: input.scope === 'rows' ? input.rowFrom : null,
+      rowTo: input.scope === 'rows' ? input.rowTo : null,
+      quantity,
+    },
+  };
+}
+
+const where = (i: { scope: string; rowFrom: number | null; rowTo: number | null }) =>
+  i.scope === 'rows' ? `rows ${i.rowFrom}–${i.rowTo}` : i.scope === 'all-rows' ? 'every row' : `the ${i.scope}`;
+
+export async function createInstall(sequelize: Sequelize, user: SessionUser, planterId: number, input: InstallInput) {
+  return sequelize.transaction(async (transaction) => {
+    const planter = await Planter.findByPk(planterId, { transaction });
+    if (!planter) throw notFound('That planter');
+    await accountFor(user, planter.accountId, 'edit', transaction);
+    const { component, values } = await checkInstall(planter, input, transaction);
+    const install = await Install.create({ ...values, planterId }, { transaction });
+    await audit(transaction, {
+      accountId: planter.accountId,
+      userId: user.id,
+      entity: 'install',
+      entityId: install.id,
+      action: 'create',
+      summary: `Installed ${component.name} (${component.partNumber}) on ${where(install)} of ${planter.name}`,
+    });
+    return { ...plain(install, INSTALL_NUMBERS), component: plain(component, COMPONENT_NUMBERS) };
+  });
+}
+
+export async function updateInstall(sequelize: Sequelize, user: SessionUser, id: number, input: InstallInput & { version: number }) {
+  return sequelize
+    .transaction(async (transaction) => {
+      const install = await Install.findByPk(id, { transaction });
+      if (!install) throw notFound('That install');
+      const planter = (await Planter.findByPk(install.planterId, { transaction }))!;
+      await accountFor(user, planter.accountId, 'edit', transaction);
+      assertVersion(install.version, input.version);
+      const { version: _v, ...rest } = input;
+      const { component, values } = await checkInstall(planter, rest, transaction);
+      const changes = diff(plain(install, INSTALL_NUMBERS), values);
+      install.set(values);
+      await install.save({ transaction });
+      const removed = values.status === 'removed' && changes.status;
+      await audit(transaction, {
+        accountId: planter.accountId,
+        userId: user.id,
+        entity: 'install',
+        entityId: id,
+        action: 'update',
+        summary: removed ? `Removed ${component.name} from ${planter.name}: ${values.removedReason ?? 'no reason given'}` : `Changed ${component.name} on ${planter.name}`,
+        changes,
+      });
+      return { ...plain(install, INSTALL_NUMBERS), component: plain(component, COMPONENT_NUMBERS) };
+    })
+    .catch(mapLockError);
+}
+
+export async function deleteInstall(sequelize: Sequelize, user: SessionUser, id: number) {
+  await sequelize.transaction(async (transaction) => {
+    const install = await Install.findByPk(id, { transaction, include: [{ model: Component, as: 'component' }] });
+    if (!install) throw notFound('That install');
+    const planter = (await Planter.findByPk(install.planterId, { transaction }))!;
+    await accountFor(user, planter.accountId, 'edit', transaction);
+    await install.destroy({ transaction });
+    const component = (install as Install & { component: Component }).component;
+    await audit(transaction, { accountId: planter.accountId, userId: user.id, entity: 'install', entityId: id, action: 'delete', summary: `Deleted the record of ${component.name} on ${planter.name}` });
+  });
+}
