@@ -11,6 +11,7 @@ import { errorHandler, unknownRoute } from './http/errors.js';
 import { accountsRouter } from './modules/accounts/accounts.router.js';
 import { componentsRouter } from './modules/fleet/components.router.js';
 import { fleetRouter } from './modules/fleet/fleet.router.js';
+import { sizingRouter } from './modules/sizing/sizing.router.js';
 import { adminUsersRouter } from './modules/admin-users/admin-users.router.js';
 import { authRouter } from './modules/auth/auth.router.js';
 import { healthRouter } from './modules/health/health.router.js';
@@ -65,6 +66,7 @@ export function createApp({ sequelize, config, clientDir, log = defaultLog }: Ap
   app.use('/api/accounts', accountsRouter(sequelize));
   app.use('/api/components', componentsRouter(sequelize));
   app.use('/api', fleetRouter(sequelize));
+  app.use('/api', sizingRouter());
   app.use('/api/admin/users', adminUsersRouter(sequelize, securityLog));
   app.use('/api', unknownRoute);
 
