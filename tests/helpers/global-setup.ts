@@ -10,9 +10,11 @@ let local: LocalMariaDb | null = null;
 export default async function setup(project: TestProject) {
   let url = process.env.TEST_DATABASE_URL;
   if (!url) {
+    const port = Number(process.env.TEST_DB_PORT ?? 3317);
+    // One data directory per port, so that parallel runs on other ports never share a server.
     local = await startLocalMariaDb({
-      baseDir: '.data/test-mariadb',
-      port: Number(process.env.TEST_DB_PORT ?? 3317),
+      baseDir: `.data/test-mariadb-${port}`,
+      port,
       database: 'rowpath_test',
       log: () => undefined,
     });

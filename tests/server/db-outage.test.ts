@@ -12,7 +12,7 @@ let db: LocalMariaDb;
 let t: TestApp;
 
 beforeAll(async () => {
-  db = await startLocalMariaDb({ baseDir: '.data/test-mariadb-outage', port: Number(process.env.TEST_OUTAGE_DB_PORT ?? 3327), database: 'rowpath_outage', log: () => undefined });
+  db = await startLocalMariaDb({ baseDir: `.data/test-mariadb-outage-${process.env.TEST_OUTAGE_DB_PORT ?? 3327}`, port: Number(process.env.TEST_OUTAGE_DB_PORT ?? 3327), database: 'rowpath_outage', log: () => undefined });
   const s = createSequelize(db.url);
   await s.getQueryInterface().dropAllTables();
   await migrateUp(s);
