@@ -20,7 +20,7 @@ export async function seedLarge(sequelize: import('sequelize').Sequelize, log = 
   const ids = await nextIds(sequelize);
   const chunk = 250;
   for (let done = 0; done < LARGE.accounts; done += chunk) {
-    const accounts: Parameters<typeof Account.bulkCreate>[0] = [];
+    const accounts: Record<string, unknown>[] = [];
     const fleet = emptyFleet();
     for (let i = 0; i < chunk; i++) {
       const id = accountId++;
@@ -47,7 +47,7 @@ export async function seedLarge(sequelize: import('sequelize').Sequelize, log = 
       });
     }
     await sequelize.transaction(async (transaction) => {
-      await Account.bulkCreate(accounts, { transaction, validate: false });
+      await Account.bulkCreate(accounts as never[], { transaction, validate: false });
       await insertFleet(fleet, transaction);
     });
     log(`  ${done + chunk} / ${LARGE.accounts} accounts`);

@@ -66,10 +66,16 @@ describe('first start and sign-in for every role', () => {
     });
   }
 
-  it('when a page does not exist, then the 404 page shows inside the app', async () => {
+  it('when a signed-in user opens a page that does not exist, then the 404 page shows inside the app', async () => {
     const page = await browser.newPage();
+    await page.goto(`${server.url}/sign-in`);
+    await page.getByLabel(/e-?mail/i).fill('specialist@rowpath.test');
+    await page.getByLabel(/password/i).fill(DEMO_PASSWORD);
+    await page.getByRole('button', { name: /sign in/i }).click();
+    await page.getByRole('navigation', { name: 'Main' }).waitFor();
     await page.goto(`${server.url}/no-such-page`);
-    await expect(page.getByText(/not found|no page/i).first().isVisible()).resolves.toBe(true);
+    await page.getByRole('navigation', { name: 'Main' }).waitFor();
+    await expect(page.getByText(/not found|no page|doesn.t exist/i).first().isVisible()).resolves.toBe(true);
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'foundation-404.png') });
     await page.close();
   });

@@ -1,6 +1,5 @@
 import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
-import os from 'node:os';
 import path from 'node:path';
 
 export const CHROMIUM = '/usr/bin/chromium';
@@ -22,7 +21,7 @@ export function ensureChromium() {
 
 export async function launchChromium() {
   const { chromium } = await import('playwright-core');
-  const userDataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'rowpath-chromium-'));
+  // launch() gives every run a fresh, throw-away profile of its own.
   const browser = await chromium.launch({
     executablePath: CHROMIUM,
     args: [
@@ -34,7 +33,6 @@ export async function launchChromium() {
       '--disable-background-networking',
       '--disable-component-update',
       '--disable-sync',
-      `--user-data-dir=${userDataDir}`,
     ],
   });
   return browser;

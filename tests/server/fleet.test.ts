@@ -151,14 +151,15 @@ describe('account detail cost', () => {
     }
     const count = async (id: number) => {
       let n = 0;
-      const original = t.sequelize.options.logging;
-      t.sequelize.options.logging = (sql: string) => {
+      const options = (t.sequelize as unknown as { options: { logging: unknown } }).options;
+      const original = options.logging;
+      options.logging = (sql: string) => {
         if (!/sessions|security_events/.test(sql)) n++;
       };
       try {
         expect((await specialist.get(`/api/accounts/${id}`)).status).toBe(200);
       } finally {
-        t.sequelize.options.logging = original;
+        options.logging = original;
       }
       return n;
     };

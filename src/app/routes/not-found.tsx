@@ -1,0 +1,1 @@
+export { NotFoundPage as Component } from '../not-found';

@@ -1,0 +1,260 @@
+import { useQuery } from '@tanstack/react-query';
+import {
+  createColumnHelper,
+  getCoreRowModel,
+  useReactTable,
+  type SortingState,
+  type Updater,
+} from '@tanstack/react-table';
+import { useEffect, useMemo, useState } from 'react';
+import { Link, useLocation, useSearchParams } from 'react-router-dom';
+import { Button } from '@/components/ui/button';
+import { DataTable } from '@/components/ui/data-table';
+import { inputClasses } from '@/components/ui/form-field';
+import { PageHeader } from '@/components/ui/page-header';
+import { Pagination } from '@/components/ui/pagination';
+import { EmptyState, ErrorState } from '@/components/ui/states';
+import { useCurrentUser } from '@/features/auth/components/current-user';
+import { territoriesQueryOptions } from '@/features/territories/api/territories';
+import { accountListQueryOptions, type AccountListFilters, type AccountSort, type AccountSummary } from '../api/accounts';
+import { accountPageSizes, parseAccountListParams, toAccountListParams } from '../api/list-params';
+import { AccountStatusBadge } from './account-status-badge';
+
+const column = createColumnHelper<AccountSummary>();
+
+// Defined once: a new array on every render would make the table rebuild its columns.
+const columns = [
+  column.accessor('name', {
+    header: 'Account',
+    cell: (info) => <AccountLink account={info.row.original} />,
+  }),
+  column.accessor('status', {
+    header: 'Status',
+    cell: (info) => <AccountStatusBadge status={info.getValue()} />,
+  }),
+  column.accessor('town', {
+    header: 'Town',
+    cell: (info) => `${info.getValue()}, ${info.row.original.state}`,
+  }),
+  column.accessor('territoryName', {
+    header: 'Territory',
+    enableSorting: false,
+    cell: (info) => info.getValue() ?? <span className="text-loam-700">None</span>,
+    meta: { className: 'hidden md:table-cell' },
+  }),
+  column.accessor('specialistName', {
+    header: 'Specialist',
+    enableSorting: false,
+    cell: (info) => info.getValue() ?? <span className="text-loam-700">Unassigned</span>,
+    meta: { className: 'hidden lg:table-cell' },
+  }),
+];
+
+function AccountLink({ account }: { account: AccountSummary }) {
+  const location = useLocation();
+  return (
+    <Link
+      to={`/accounts/${account.id}`}
+      state={{ fromList: location.search }}
+      className="inline-flex min-h-11 items-center font-semibold text-ink-800 underline decoration-ink-300 underline-offset-4 hover:decoration-ink-800"
+    >
+      {account.name}
+    </Link>
+  );
+}
+
+function toSorting(sort: AccountSort): SortingState {
+  return [{ id: sort.replace(/^-/, ''), desc: sort.startsWith('-') }];
+}
+
+function fromSorting(sorting: SortingState): AccountSort {
+  const first = sorting[0];
+  if (!first) return 'name';
+  return `${first.desc ? '-' : ''}${first.id}` as AccountSort;
+}
+
+const descriptions = {
+  admin: 'Every account at the dealership.',
+  manager: 'Accounts in the territories you manage.',
+  specialist: 'Accounts in your territory.',
+  grower: 'Your own account.',
+} as const;
+
+export function AccountsPage() {
+  const user = useCurrentUser();
+  const [searchParams, setSearchParams] = useSearchParams();
+  const filters = useMemo(() => parseAccountListParams(searchParams), [searchParams]);
+
+  // Patches the URL as it is now (not as this render saw it), so a delayed search cannot undo
+  // a sort or page change made in the meantime.
+  const setFilters = (patch: Partial<AccountListFilters>, options: { replace?: boolean } = {}) =>
+    setSearchParams((current) => toAccountListParams({ ...parseAccountListParams(current), ...patch }), {
+      replace: options.replace ?? false,
+    });
+
+  const accounts = useQuery(accountListQueryOptions(filters));
+  const canFilterByTerritory = user.role !== 'grower';
+  const territories = useQuery({ ...territoriesQueryOptions(), enabled: canFilterByTerritory });
+
+  // Search box: typed text is local; it reaches the URL (and the server) after a short pause.
+  const [searchText, setSearchText] = useState(filters.q ?? '');
+  useEffect(() => {
+    // The URL changed from outside (Back, a link): show its search, unless it is what we typed.
+    setSearchText((current) => (current.trim() === (filters.q ?? '') ? current : (filters.q ?? '')));
+  }, [filters.q]);
+  useEffect(() => {
+    const next = searchText.trim();
+    if (next === (filters.q ?? '')) return;
+    const timer = window.setTimeout(() => setFilters({ q: next || undefined, page: 1 }, { replace: true }), 350);
+    return () => window.clearTimeout(timer);
+  }, [searchText]);
+
+  const sorting = useMemo(() => toSorting(filters.sort), [filters.sort]);
+  const table = useReactTable({
+    data: accounts.data?.items ?? [],
+    columns,
+    getRowId: (row) => String(row.id),
+    getCoreRowModel: getCoreRowModel(),
+    manualPagination: true,
+    manualSorting: true,
+    manualFiltering: true,
+    enableMultiSort: false,
+    enableSortingRemoval: false,
+    sortDescFirst: false,
+    rowCount: accounts.data?.total ?? 0,
+    state: { sorting, pagination: { pageIndex: filters.page - 1, pageSize: filters.pageSize } },
+    onSortingChange: (updater: Updater<SortingState>) => {
+      const next = typeof updater === 'function' ? updater(sorting) : updater;
+      setFilters({ sort: fromSorting(next), page: 1 });
+    },
+  });
+
+  const total = accounts.data?.total ?? 0;
+  const filtered = Boolean(filters.q || filters.territoryId);
+  const pastLastPage = accounts.isSuccess && total > 0 && accounts.data.items.length === 0;
+
+  return (
+    <>
+      <title>Accounts · Rowpath</title>
+      <PageHeader title="Accounts" description={descriptions[user.role]} />
+
+      <form
+        role="search"
+        aria-label="Accounts"
+        className="mb-4 flex flex-wrap items-end gap-3"
+        onSubmit={(event) => {
+          event.preventDefault();
+          setFilters({ q: searchText.trim() || undefined, page: 1 });
+        }}
+      >
+        <div className="min-w-60 flex-1 sm:max-w-md">
+          <label htmlFor="account-search" className="mb-1 block font-semibold text-ink-900">
+            Search accounts
+          </label>
+          <input
+            id="account-search"
+            type="search"
+            className={inputClasses}
+            placeholder="Account name or town"
+            value={searchText}
+            onChange={(event) => setSearchText(event.target.value)}
+            autoComplete="off"
+          />
+        </div>
+        {canFilterByTerritory && (territories.data?.length ?? 0) > 1 && (
+          <div className="min-w-48">
+            <label htmlFor="account-territory" className="mb-1 block font-semibold text-ink-900">
+              Territory
+            </label>
+            <select
+              id="account-territory"
+              className={inputClasses}
+              value={filters.territoryId ?? ''}
+              onChange={(event) =>
+                setFilters({ territoryId: event.target.value ? Number(event.target.value) : undefined, page: 1 })
+              }
+            >
+              <option value="">All territories</option>
+              {territories.data?.map((territory) => (
+                <option key={territory.id} value={territory.id}>
+                  {territory.name}
+                </option>
+              ))}
+            </select>
+          </div>
+        )}
+        {filtered && (
+          <Button
+            variant="ghost"
+            onClick={() => {
+              setSearchText('');
+              setFilters({ q: undefined, territoryId: undefined, page: 1 });
+            }}
+          >
+            Clear filters
+          </Button>
+        )}
+      </form>
+
+      {accounts.isError ? (
+        <ErrorState
+          title="Accounts could not be loaded"
+          message={accounts.error.message}
+          onRetry={() => void accounts.refetch()}
+          retrying={accounts.isFetching}
+        />
+      ) : (
+        <>
+          <DataTable
+            table={table}
+            caption="Accounts"
+            isLoading={accounts.isPending}
+            isRefreshing={accounts.isPlaceholderData}
+            empty={
+              pastLastPage ? (
+                <EmptyState
+                  title="This page is past the end of the list"
+                  action={<Button variant="secondary" onClick={() => setFilters({ page: 1 })}>Go to the first page</Button>}
+                />
+              ) : filtered ? (
+                <EmptyState
+                  title={filters.q ? `No accounts match “${filters.q}”` : 'No accounts in this territory'}
+                  action={
+                    <Button
+                      variant="secondary"
+                      onClick={() => {
+                        setSearchText('');
+                        setFilters({ q: undefined, territoryId: undefined, page: 1 });
+                      }}
+                    >
+                      Clear filters
+                    </Button>
+                  }
+                >
+                  Search looks at account names and towns.
+                </EmptyState>
+              ) : (
+                <EmptyState title="No accounts yet">
+                  {user.role === 'admin'
+                    ? 'Accounts will be listed here once they are added.'
+                    : 'Accounts will be listed here once they are assigned to your territory.'}
+                </EmptyState>
+              )
+            }
+          />
+          {!accounts.isPending && total > 0 && (
+            <Pagination
+              page={filters.page}
+              pageSize={filters.pageSize}
+              total={total}
+              noun={total === 1 ? 'account' : 'accounts'}
+              pageSizes={[...accountPageSizes]}
+              onPageChange={(page) => setFilters({ page })}
+              onPageSizeChange={(pageSize) => setFilters({ pageSize, page: 1 })}
+            />
+          )}
+        </>
+      )}
+    </>
+  );
+}
