@@ -70,7 +70,8 @@ export function assertPortFree(port: number, host: string): Promise<void> {
 }
 
 const root = path.resolve(path.dirname(new URL(import.meta.url).pathname), '..');
-export const clientDir = path.join(root, 'dist');
+/** Where the built client lives; CLIENT_DIST_DIR lets parallel browser-test runs build apart. */
+export const clientDir = path.resolve(root, process.env.CLIENT_DIST_DIR ?? 'dist');
 
 function newestMtime(entry: string): number {
   if (!fs.existsSync(entry)) return 0;
@@ -88,6 +89,6 @@ export function ensureClientBuilt(log: (line: string) => void = console.log) {
   if (fs.existsSync(built) && fs.statSync(built).mtimeMs >= Math.max(...sources)) return;
   log('Building the client (Vite)…');
   const vite = path.join(root, 'node_modules', '.bin', 'vite');
-  const result = spawnSync(vite, ['build', '--logLevel', 'warn'], { cwd: root, stdio: 'inherit' });
+  const result = spawnSync(vite, ['build', '--logLevel', 'warn', '--outDir', clientDir, '--emptyOutDir'], { cwd: root, stdio: 'inherit' });
   if (result.status !== 0) throw new Error('The client build failed; see the output above.');
 }

@@ -14,6 +14,7 @@ const env = {
   PORT: process.env.E2E_PORT ?? '3390',
   DB_PORT: process.env.E2E_DB_PORT ?? '3391',
   ROWPATH_DATA_DIR: `.data/e2e-${process.env.E2E_PORT ?? '3390'}`,
+  CLIENT_DIST_DIR: `.data/dist-${process.env.E2E_PORT ?? '3390'}`,
 };
 const DEMO_PASSWORD = 'rowpath-demo';
 let server: RunningServer;
