@@ -9,13 +9,17 @@ import { securityLogger } from './auth/security-log.js';
 import { installSessions } from './auth/session.js';
 import { errorHandler, unknownRoute } from './http/errors.js';
 import { accountsRouter } from './modules/accounts/accounts.router.js';
+import { attachmentsRouter } from './modules/attachments/attachments.router.js';
+import { csvRouter } from './modules/csv/csv.router.js';
 import { componentsRouter } from './modules/fleet/components.router.js';
 import { fleetRouter } from './modules/fleet/fleet.router.js';
 import { sizingRouter } from './modules/sizing/sizing.router.js';
+import { forecastRouter } from './modules/forecast/forecast.router.js';
 import { adminUsersRouter } from './modules/admin-users/admin-users.router.js';
 import { authRouter } from './modules/auth/auth.router.js';
 import { healthRouter } from './modules/health/health.router.js';
 import { territoriesRouter } from './modules/territories/territories.router.js';
+import { visitPlanningRouter } from './modules/visits/index.js';
 
 export interface AppDeps {
   sequelize: Sequelize;
@@ -63,17 +67,21 @@ export function createApp({ sequelize, config, clientDir, log = defaultLog }: Ap
   app.use('/api', csrf);
   app.use('/api/auth', authRouter(sequelize, config, securityLog));
   app.use('/api/territories', territoriesRouter());
+  app.use('/api', csvRouter(sequelize)); // before /api/accounts: export.csv is not an account id
   app.use('/api/accounts', accountsRouter(sequelize));
   app.use('/api/components', componentsRouter(sequelize));
   app.use('/api', fleetRouter(sequelize));
+  app.use('/api', attachmentsRouter(sequelize, config));
   app.use('/api', sizingRouter());
+  app.use('/api', forecastRouter(sequelize));
   app.use('/api/admin/users', adminUsersRouter(sequelize, securityLog));
+  app.use('/api', visitPlanningRouter(sequelize, log));
   app.use('/api', unknownRoute);
 
   if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
     app.use(express.static(clientDir, { index: false, maxAge: '1h', setHeaders: immutableAssets }));
     // The client routes itself: any other GET gets the app's page.
-    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+    app.get('/{*splat}', (_req, res) => res.sendFile('index.html', { root: clientDir }));
   }
   app.use(errorHandler(log));
   return app;

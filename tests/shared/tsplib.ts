@@ -11,8 +11,9 @@ export interface TsplibInstance {
   coords: { x: number; y: number }[];
 }
 
-/** The reference files live outside the project, beside it in ../shared/data/tsplib/. */
-export const TSPLIB_DIR = fileURLToPath(new URL('../../../shared/data/tsplib/', import.meta.url));
+/** Copies of the TSPLIB reference files (Reinelt 1991), kept in the repository so tests never
+ * depend on anything outside it. */
+export const TSPLIB_DIR = fileURLToPath(new URL('../fixtures/tsplib/', import.meta.url));
 
 /** Published optimal tour lengths (TSPLIB, Reinelt 1991; also in ../shared/data/tsplib/README.md). */
 export const TSPLIB_OPTIMA = { eil51: 426, berlin52: 7542, st70: 675 } as const;
