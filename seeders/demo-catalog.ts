@@ -25,6 +25,7 @@ export const CATALOG: ComponentInput[] = [
   { category: 'in-furrow-liquid', name: 'In-furrow liquid kit, per row', maker: 'Quarry Creek Mfg.', partNumber: 'KR-IF-600', priceUsd: 165, labourHours: 0.5, expectedLifeYears: 10, unit: 'row', hydraulicGpm: null, ratedMaxSpeedMph: null, maxSeedsPerSecond: null, crops: [], movesToNewToolbar: true, active: true },
   { category: 'in-furrow-liquid', name: 'Liquid pump and rate controller', maker: 'Quarry Creek Mfg.', partNumber: 'KR-IF-610', priceUsd: 3400, labourHours: 5, expectedLifeYears: 12, unit: 'planter', hydraulicGpm: 3, ratedMaxSpeedMph: null, maxSeedsPerSecond: null, crops: [], movesToNewToolbar: true, active: true },
   { category: 'in-furrow-liquid', name: 'Toolbar-mount liquid tank, 300 gal', maker: 'Quarry Creek Mfg.', partNumber: 'KR-LT-300', priceUsd: 2600, labourHours: 6, expectedLifeYears: 15, unit: 'toolbar', hydraulicGpm: null, ratedMaxSpeedMph: null, maxSeedsPerSecond: null, crops: [], movesToNewToolbar: false, active: true },
+  { category: 'in-furrow-liquid', name: 'Tractor front-mount liquid tank, 500 gal', maker: 'Quarry Creek Mfg.', partNumber: 'KR-LT-500', priceUsd: 4100, labourHours: 5, expectedLifeYears: 15, unit: 'planter', hydraulicGpm: null, ratedMaxSpeedMph: null, maxSeedsPerSecond: null, crops: [], movesToNewToolbar: true, active: true },
   { category: 'liquid-monitoring', name: 'Liquid flow monitor, per row', maker: 'Ninebark Ag Systems', partNumber: 'KR-LM-220', priceUsd: 120, labourHours: 0.3, expectedLifeYears: 8, unit: 'row', hydraulicGpm: null, ratedMaxSpeedMph: null, maxSeedsPerSecond: null, crops: [], movesToNewToolbar: true, active: true },
   // section control, dry fertilizer, hydraulics, display, wiring
   { category: 'section-control', name: 'Row clutch, air-operated', maker: 'Loessfield Equipment', partNumber: 'KR-SC-070', priceUsd: 260, labourHours: 0.75, expectedLifeYears: 8, unit: 'row', hydraulicGpm: null, ratedMaxSpeedMph: null, maxSeedsPerSecond: null, crops: [], movesToNewToolbar: true, active: true },
@@ -38,3 +39,40 @@ export const CATALOG: ComponentInput[] = [
 
 /** Planter makers for the demo, all invented. */
 export const PLANTER_MAKERS = ['Harrowgate Implement', 'Ironvale Mfg.', 'Kessel Plains Machine'];
+
+/** Rules between demo parts, by part number. Capabilities are Rowpath's own words. */
+export type DemoRule =
+  | { part: string; kind: 'provides'; capability: string }
+  | { part: string; kind: 'requires'; target?: string; capability?: string }
+  | { part: string; kind: 'supersedes' | 'conflicts-with'; target: string }
+  | { part: string; kind: 'prepares-for'; target: string; labourHoursSaved: number; partsUsdSaved: number };
+
+export const RULES: DemoRule[] = [
+  { part: 'KR-ED-300', kind: 'provides', capability: 'electric-drive' },
+  { part: 'KR-ED-300', kind: 'provides', capability: 'rate-control' },
+  { part: 'KR-ED-300', kind: 'provides', capability: 'row-shutoff' },
+  { part: 'KR-ED-300', kind: 'requires', target: 'KR-HC-100' },
+  { part: 'KR-ED-300', kind: 'requires', target: 'KR-ED-390' },
+  { part: 'KR-ED-300', kind: 'supersedes', target: 'KR-HD-150' },
+  { part: 'KR-ED-300', kind: 'supersedes', target: 'KR-SC-070' },
+  { part: 'KR-HD-150', kind: 'provides', capability: 'rate-control' },
+  { part: 'KR-SC-070', kind: 'provides', capability: 'row-shutoff' },
+  { part: 'KR-HC-160', kind: 'prepares-for', target: 'KR-ED-300', labourHoursSaved: 0.5, partsUsdSaved: 0 },
+  { part: 'KR-SD-500', kind: 'provides', capability: 'high-speed-delivery' },
+  { part: 'KR-SD-500', kind: 'requires', capability: 'electric-drive' },
+  { part: 'KR-SD-500', kind: 'requires', target: 'KR-SM-220' },
+  { part: 'KR-SM-220', kind: 'provides', capability: 'high-speed-metering' },
+  { part: 'KR-SM-220', kind: 'supersedes', target: 'KR-SM-110' },
+  { part: 'KR-SM-220', kind: 'supersedes', target: 'KR-SM-040' },
+  { part: 'KR-DF-410', kind: 'provides', capability: 'active-downforce' },
+  { part: 'KR-DF-410', kind: 'supersedes', target: 'KR-DF-200' },
+  { part: 'KR-IF-600', kind: 'provides', capability: 'in-furrow-liquid' },
+  { part: 'KR-IF-600', kind: 'requires', target: 'KR-IF-610' },
+  { part: 'KR-LM-220', kind: 'requires', target: 'KR-IF-600' },
+  { part: 'KR-LM-220', kind: 'provides', capability: 'liquid-monitoring' },
+  { part: 'KR-LT-300', kind: 'provides', capability: 'fertilizer-capacity' },
+  { part: 'KR-LT-500', kind: 'provides', capability: 'fertilizer-capacity' },
+  { part: 'KR-DRY-900', kind: 'provides', capability: 'fertilizer-capacity' },
+  { part: 'KR-HP-800', kind: 'provides', capability: 'extra-hydraulic-flow' },
+  { part: 'KR-SS-050', kind: 'provides', capability: 'seed-sensing' },
+];

@@ -7,6 +7,7 @@ import type { AcresByCrop } from '../shared/schemas/accounts.js';
 import type { Role } from '../shared/schemas/auth.js';
 import { Account, Component, Territory, User, UserTerritory } from '../server/db/models/index.js';
 import { CATALOG } from './demo-catalog.js';
+import { seedDemoRoadmaps } from './demo-roadmap.js';
 import { catalogIds, emptyFleet, generateFleet, insertFleet, mulberry32, nextIds } from './fleet-generator.js';
 
 export const DEMO_PASSWORD = 'rowpath-demo';
@@ -121,4 +122,6 @@ export async function seedDemo(sequelize: Sequelize) {
     );
     await insertFleet(fleet, transaction);
   });
+  // Roadmaps are planned by the same service the app uses, each in its own transaction.
+  await seedDemoRoadmaps(sequelize);
 }

@@ -13,11 +13,13 @@ import { attachmentsRouter } from './modules/attachments/attachments.router.js';
 import { csvRouter } from './modules/csv/csv.router.js';
 import { componentsRouter } from './modules/fleet/components.router.js';
 import { fleetRouter } from './modules/fleet/fleet.router.js';
+import { roadmapRouter } from './modules/roadmap/roadmap.router.js';
 import { sizingRouter } from './modules/sizing/sizing.router.js';
 import { forecastRouter } from './modules/forecast/forecast.router.js';
 import { adminUsersRouter } from './modules/admin-users/admin-users.router.js';
 import { authRouter } from './modules/auth/auth.router.js';
 import { healthRouter } from './modules/health/health.router.js';
+import { remindersRouter } from './modules/reminders/reminders.router.js';
 import { territoriesRouter } from './modules/territories/territories.router.js';
 import { visitPlanningRouter } from './modules/visits/index.js';
 
@@ -64,6 +66,7 @@ export function createApp({ sequelize, config, clientDir, log = defaultLog }: Ap
   });
   const { csrf } = installSessions(app, sequelize, config, securityLog);
   app.use(passport.initialize());
+  app.use('/api', remindersRouter(sequelize, config, csrf)); // before csrf: signed e-mail links post without a session; its other routes check csrf themselves
   app.use('/api', csrf);
   app.use('/api/auth', authRouter(sequelize, config, securityLog));
   app.use('/api/territories', territoriesRouter());
@@ -73,6 +76,7 @@ export function createApp({ sequelize, config, clientDir, log = defaultLog }: Ap
   app.use('/api', fleetRouter(sequelize));
   app.use('/api', attachmentsRouter(sequelize, config));
   app.use('/api', sizingRouter());
+  app.use('/api', roadmapRouter(sequelize));
   app.use('/api', forecastRouter(sequelize));
   app.use('/api/admin/users', adminUsersRouter(sequelize, securityLog));
   app.use('/api', visitPlanningRouter(sequelize, log));
