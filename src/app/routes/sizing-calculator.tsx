@@ -1,0 +1,1 @@
+export { SizingCalculatorPage as Component } from '@/features/sizing/components/sizing-calculator-page';
