@@ -8,6 +8,7 @@ import type { Role } from '../shared/schemas/auth.js';
 import { Account, Component, Territory, User, UserTerritory } from '../server/db/models/index.js';
 import { CATALOG } from './demo-catalog.js';
 import { seedDemoRoadmaps } from './demo-roadmap.js';
+import { seedDemoVisits } from './demo-visits.js';
 import { catalogIds, emptyFleet, generateFleet, insertFleet, mulberry32, nextIds } from './fleet-generator.js';
 
 export const DEMO_PASSWORD = 'rowpath-demo';
@@ -124,4 +125,5 @@ export async function seedDemo(sequelize: Sequelize) {
   });
   // Roadmaps are planned by the same service the app uses, each in its own transaction.
   await seedDemoRoadmaps(sequelize);
+  await seedDemoVisits(sequelize);
 }
