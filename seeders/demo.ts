@@ -9,6 +9,7 @@ import { Account, Component, Territory, User, UserTerritory } from '../server/db
 import { CATALOG } from './demo-catalog.js';
 import { seedDemoRoadmaps } from './demo-roadmap.js';
 import { seedDemoVisits } from './demo-visits.js';
+import { seedDemoReminders } from './demo-reminders.js';
 import { catalogIds, emptyFleet, generateFleet, insertFleet, mulberry32, nextIds } from './fleet-generator.js';
 
 export const DEMO_PASSWORD = 'rowpath-demo';
@@ -126,4 +127,5 @@ export async function seedDemo(sequelize: Sequelize) {
   // Roadmaps are planned by the same service the app uses, each in its own transaction.
   await seedDemoRoadmaps(sequelize);
   await seedDemoVisits(sequelize);
+  await seedDemoReminders(sequelize);
 }

@@ -5,12 +5,14 @@ import { seedDemo, DEMO_PASSWORD, DEMO_USERS } from '../seeders/demo.js';
 import { createApp } from './app.js';
 import { assertPortFree, clientDir, databaseIsEmpty, ensureClientBuilt, openDatabase, type Database } from './boot.js';
 import { loadConfig } from './config.js';
+import { startMailAndJobs } from './jobs/scheduler.js';
 
 async function main() {
   const config = loadConfig();
   await assertPortFree(config.PORT, config.HOST);
   const db: Database = await openDatabase(config);
   let server: Server | null = null;
+  let mailAndJobs: Promise<{ stop(): Promise<void> } | null> | null = null; // reminders: SMTP stand-in + scheduler
   let closing = false;
   const shutdown = async (signal: string) => {
     if (closing) return;
@@ -18,6 +20,7 @@ async function main() {
     console.log(`\n${signal}: closing the web server, then the database…`);
     await new Promise<void>((resolve) => (server ? server.close(() => resolve()) : resolve()));
     server?.closeAllConnections?.();
+    await (await mailAndJobs)?.stop(); // reminders stop before the database closes
     await db.close();
     console.log('Rowpath stopped cleanly.');
     process.exit(0);
@@ -43,6 +46,8 @@ async function main() {
       console.log(`Demo sign-ins (password "${DEMO_PASSWORD}"): ${DEMO_USERS.map((u) => u.email).join(', ')}`);
     }
     console.log('Press Ctrl-C to stop.');
+    // Reminders: the local SMTP stand-in (only without SMTP_URL) and the enqueue/send jobs.
+    mailAndJobs = startMailAndJobs(db.sequelize, config).catch((err) => (console.error(`Reminders did not start: ${err.message}`), null));
   });
   server.on('error', async (err: NodeJS.ErrnoException) => {
     console.error(err.code === 'EADDRINUSE' ? `Port ${config.PORT} is already in use. Set PORT to a free port.` : err.message);

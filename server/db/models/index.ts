@@ -2,11 +2,13 @@ import type { Sequelize } from 'sequelize';
 import { Account } from './account.js';
 import { Attachment, AuditEvent, Component, Contact, FarmSite, Install, Planter, Toolbar, Tractor } from './fleet.js';
 import { ComponentRule, Goal, PlannedReplacement, Quote, RoadmapItem, RoadmapVersion, SeasonBudget, Setting, Visit } from './planning.js';
+import { ReceivedMail, ReminderCampaign, ReminderCampaignTerritory, ReminderOutbox, SeasonWindow } from './reminders.js';
 import { Session } from './session.js';
 import { Territory } from './territory.js';
 import { User, UserTerritory } from './user.js';
 
 export { ComponentRule, Goal, PlannedReplacement, Quote, RoadmapItem, RoadmapVersion, SeasonBudget, Setting, Visit };
+export { ReceivedMail, ReminderCampaign, ReminderCampaignTerritory, ReminderOutbox, SeasonWindow };
 export { Account, Attachment, AuditEvent, Component, Contact, FarmSite, Install, Planter, Session, Territory, Toolbar, Tractor, User, UserTerritory };
 
 /** Registers every model and association on one Sequelize instance. */
@@ -14,6 +16,8 @@ export function initModels(sequelize: Sequelize) {
   for (const model of [User, UserTerritory, Territory, Account, Session, Contact, FarmSite, Tractor, Planter, Toolbar, Component, Install, Attachment, AuditEvent, Setting, ComponentRule, Goal, SeasonBudget, PlannedReplacement, RoadmapItem, RoadmapVersion, Quote, Visit]) {
     model.initModel(sequelize);
   }
+  // Pre-season reminders (server/db/models/reminders.ts).
+  for (const model of [SeasonWindow, ReminderCampaign, ReminderCampaignTerritory, ReminderOutbox, ReceivedMail]) model.initModel(sequelize);
   User.belongsToMany(Territory, { through: UserTerritory, foreignKey: 'userId', otherKey: 'territoryId', as: 'territories' });
   Territory.belongsToMany(User, { through: UserTerritory, foreignKey: 'territoryId', otherKey: 'userId', as: 'users' });
   Account.belongsTo(Territory, { foreignKey: 'territoryId', as: 'territory' });
