@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions } from '@tanstack/react-query';
 import type { AccountStatus, AcresByCrop } from '@shared/schemas/accounts';
 import { api } from '@/lib/api';
+import type { AccountPlanter, AuditEntry, Contact, FarmSite, Tractor } from '@/features/fleet/api/types';
 
 export type { AccountStatus, AcresByCrop };
 
@@ -22,6 +23,13 @@ export interface AccountDetail extends AccountSummary {
   address: string | null;
   notes: string | null;
   acresByCrop: AcresByCrop;
+  /** Optimistic lock: sent back with every change. */
+  version: number;
+  updatedAt: string;
+  contacts: Contact[];
+  farmSites: FarmSite[];
+  tractors: Tractor[];
+  planters: AccountPlanter[];
 }
 
 /** Sort keys the list page offers (a subset of what the server accepts). */
@@ -47,6 +55,7 @@ export const accountKeys = {
   list: (filters: AccountListFilters) => [...accountKeys.lists(), filters] as const,
   details: () => [...accountKeys.all, 'detail'] as const,
   detail: (id: number) => [...accountKeys.details(), id] as const,
+  audit: (id: number) => [...accountKeys.detail(id), 'audit'] as const,
 };
 
 /** GET /api/accounts — the server limits rows to the user's scope (all, territories, own). */
@@ -82,3 +91,11 @@ export const accountStatusLabels: Record<AccountStatus, string> = {
   prospect: 'Prospect',
   inactive: 'Inactive',
 };
+
+/** GET /api/accounts/:id/audit — who changed what on the account's records, newest first. */
+export const accountAuditQueryOptions = (id: number) =>
+  queryOptions({
+    queryKey: accountKeys.audit(id),
+    queryFn: ({ signal }) => api.get<{ items: AuditEntry[] }>(`/api/accounts/${id}/audit`, undefined, signal),
+    select: (data) => data.items,
+  });

@@ -7,8 +7,9 @@ import {
   type Updater,
 } from '@tanstack/react-table';
 import { useEffect, useMemo, useState } from 'react';
-import { Link, useLocation, useSearchParams } from 'react-router-dom';
-import { Button } from '@/components/ui/button';
+import { Link, useLocation, useNavigate, useSearchParams } from 'react-router-dom';
+import { Button, buttonClasses } from '@/components/ui/button';
+import { Dialog } from '@/components/ui/dialog';
 import { DataTable } from '@/components/ui/data-table';
 import { inputClasses } from '@/components/ui/form-field';
 import { PageHeader } from '@/components/ui/page-header';
@@ -18,7 +19,12 @@ import { useCurrentUser } from '@/features/auth/components/current-user';
 import { territoriesQueryOptions } from '@/features/territories/api/territories';
 import { accountListQueryOptions, type AccountListFilters, type AccountSort, type AccountSummary } from '../api/accounts';
 import { accountPageSizes, parseAccountListParams, toAccountListParams } from '../api/list-params';
+import { useCreateAccountMutation } from '../api/create-account';
+import { accountsExportHref } from '../api/import-accounts';
+import { Notice } from '@/features/fleet/components/form-bits';
+import { AccountForm } from './account-form';
 import { AccountStatusBadge } from './account-status-badge';
+import { ImportAccountsPanel } from './import-accounts-panel';
 
 const column = createColumnHelper<AccountSummary>();
 
@@ -82,6 +88,7 @@ const descriptions = {
 
 export function AccountsPage() {
   const user = useCurrentUser();
+  const location = useLocation();
   const [searchParams, setSearchParams] = useSearchParams();
   const filters = useMemo(() => parseAccountListParams(searchParams), [searchParams]);
 
@@ -94,6 +101,12 @@ export function AccountsPage() {
 
   const accounts = useQuery(accountListQueryOptions(filters));
   const canFilterByTerritory = user.role !== 'grower';
+  const isStaff = user.role !== 'grower';
+  const [creating, setCreating] = useState(false);
+  const [importing, setImporting] = useState(false);
+  const [notice, setNotice] = useState<string | null>(null);
+  const createAccount = useCreateAccountMutation();
+  const navigate = useNavigate();
   const territories = useQuery({ ...territoriesQueryOptions(), enabled: canFilterByTerritory });
 
   // Search box: typed text is local; it reaches the URL (and the server) after a short pause.
@@ -136,7 +149,57 @@ export function AccountsPage() {
   return (
     <>
       <title>Accounts · Rowpath</title>
-      <PageHeader title="Accounts" description={descriptions[user.role]} />
+      <PageHeader
+        title="Accounts"
+        description={descriptions[user.role]}
+        actions={
+          <>
+            <a href={accountsExportHref(filters)} download className={buttonClasses('secondary')}>
+              <svg viewBox="0 0 20 20" className="size-5" aria-hidden="true" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round">
+                <path d="M10 3v10M6 9l4 4 4-4M3.5 13.5v3h13v-3" />
+              </svg>
+              Export CSV
+            </a>
+            {isStaff && (
+              <>
+                <Button variant="secondary" onClick={() => setImporting(true)}>
+                  Import CSV
+                </Button>
+                <Button onClick={() => setCreating(true)}>
+                  <span aria-hidden="true" className="text-xl leading-none">+</span> Add an account
+                </Button>
+              </>
+            )}
+          </>
+        }
+      />
+      <Notice message={notice} onDone={() => setNotice(null)} className="mb-4" />
+      <Dialog open={creating} onClose={() => setCreating(false)} variant="panel" title="Add an account" description="A grower operation in one of your territories.">
+        {creating && (
+          <AccountForm
+            account={null}
+            busy={createAccount.isPending}
+            onCancel={() => setCreating(false)}
+            onSubmit={(input, handleError) =>
+              createAccount.mutate(input, {
+                onSuccess: ({ account }) => {
+                  setCreating(false);
+                  navigate(`/accounts/${account.id}`, { state: { fromList: location.search } });
+                },
+                onError: handleError,
+              })
+            }
+          />
+        )}
+      </Dialog>
+      <ImportAccountsPanel
+        open={importing}
+        onClose={() => setImporting(false)}
+        onImported={(report) => {
+          setImporting(false);
+          setNotice(`${report.accountIds.length} ${report.accountIds.length === 1 ? 'account was' : 'accounts were'} imported with ${report.summary.contacts} ${report.summary.contacts === 1 ? 'contact' : 'contacts'}.`);
+        }}
+      />
 
       <form
         role="search"
