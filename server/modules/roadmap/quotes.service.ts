@@ -8,7 +8,8 @@ import { AppError, notFound } from '../../http/errors.js';
 import { accountFor, audit } from '../fleet/fleet-access.js';
 import { getSettings } from '../settings/settings.service.js';
 
-const QUOTABLE = ['idea', 'proposed', 'quoted'];
+// Items already on an open quote are not quoted twice.
+const QUOTABLE = ['idea', 'proposed'];
 const round2 = (n: number) => Math.round(n * 100) / 100;
 const today = () => new Date().toISOString().slice(0, 10);
 

@@ -103,9 +103,17 @@ async function buildRoadmap(data: AccountPlanningData) {
     }),
     feasible: evaluation ? evaluation.feasible : true,
     problem: evaluation && !evaluation.feasible ? evaluation.reason : null,
-    wasteUsd: evaluation?.feasible ? evaluation.plan.wasteUsd : 0,
+    // Null while the order does not work: its waste is not defined until it does.
+    wasteUsd: evaluation ? (evaluation.feasible ? evaluation.plan.wasteUsd : null) : 0,
     wasteItems: evaluation?.feasible ? evaluation.plan.wasteItems : [],
-    unmetGoals: evaluation?.feasible ? evaluation.plan.unmetGoals : data.input.goals.map((g) => ({ goalId: g.id, status: 'unmet', metSeason: null, reason: 'No roadmap yet' })),
+    unmetGoals: evaluation?.feasible
+      ? evaluation.plan.unmetGoals
+      : data.input.goals.map((g) => ({
+          goalId: g.id,
+          status: 'unmet',
+          metSeason: null,
+          reason: evaluation ? `Not known while the roadmap's order does not work (${evaluation.reason}).` : 'Nothing is planned yet: plan the roadmap.',
+        })),
     goalOutcomes: evaluation?.feasible ? evaluation.plan.goalOutcomes : [],
     capabilityTimeline: evaluation?.feasible ? evaluation.plan.capabilityTimeline : [],
     naive: naive ? { strategy: naive.strategy, wasteUsd: naive.wasteUsd, totalCostUsd: naive.totalCostUsd } : null,
@@ -178,20 +186,27 @@ export async function replan(sequelize: Sequelize, user: SessionUser, accountId:
   return getRoadmap(user, accountId);
 }
 
-function wasteOf(e: Evaluation | null) {
-  return e && e.feasible ? e.plan.wasteUsd : 0;
+/** Waste of a workable roadmap; null when the order does not work (its waste is not defined). */
+function wasteOf(e: Evaluation | null): number | null {
+  if (!e) return 0;
+  return e.feasible ? e.plan.wasteUsd : null;
 }
 
 const usd = (n: number) => `$${Math.round(n).toLocaleString('en-US')}`;
 
-/** Warnings a move or re-stage brings: waste added, goals made late, budgets exceeded, parts made useless. */
+/** Warnings a move or re-stage brings: the order broken, waste added, goals made late. */
 function warningsBetween(before: Evaluation | null, after: Evaluation | null): string[] {
   const warnings: string[] = [];
-  if (after && !after.feasible) warnings.push(`This roadmap no longer works: ${after.reason}.`);
-  const added = wasteOf(after) - wasteOf(before);
-  if (after?.feasible && added > 0.5) {
+  if (after && !after.feasible) {
+    warnings.push(`This roadmap no longer works: ${after.reason}.`);
+    return warnings;
+  }
+  const wasteBefore = wasteOf(before);
+  const wasteAfter = wasteOf(after) ?? 0;
+  // From a broken order to a working one there is no fair "before" to compare waste with.
+  if (wasteBefore !== null && after?.feasible && wasteAfter - wasteBefore > 0.5) {
     const causes = after.plan.wasteItems.map((w) => w.explanation).slice(0, 3);
-    warnings.push(`This order throws away ${usd(added)} more of parts before the end of their life${causes.length ? `: ${causes.join(' ')}` : '.'}`);
+    warnings.push(`This order throws away ${usd(wasteAfter - wasteBefore)} more of parts before the end of their life${causes.length ? `: ${causes.join(' ')}` : '.'}`);
   }
   if (before?.feasible && after?.feasible) {
     const lateBefore = new Set(before.plan.unmetGoals.map((g) => g.goalId));
@@ -211,7 +226,16 @@ export async function evaluateMoves(user: SessionUser, accountId: number, moves:
     .filter((p) => p.season >= data.input.firstSeason && p.season < data.input.firstSeason + data.input.horizonSeasons);
   const before = evaluate(data);
   const after = evaluate(data, purchases);
-  return { wasteUsd: wasteOf(after), wasteDeltaUsd: Math.round((wasteOf(after) - wasteOf(before)) * 100) / 100, feasible: after ? after.feasible : true, warnings: warningsBetween(before, after) };
+  const wasteBefore = wasteOf(before);
+  const wasteAfter = wasteOf(after);
+  return {
+    wasteUsd: wasteAfter,
+    // Null when either order does not work: a difference would mislead.
+    wasteDeltaUsd: wasteBefore !== null && wasteAfter !== null ? Math.round((wasteAfter - wasteBefore) * 100) / 100 : null,
+    feasible: after ? after.feasible : true,
+    wasFeasible: before ? before.feasible : true,
+    warnings: warningsBetween(before, after),
+  };
 }
 
 /** Staff move, re-stage or lock an item; the answer carries the re-computed roadmap and any warnings. */

@@ -5,7 +5,8 @@ import { EmptyState, ErrorState, LoadingBlock } from '@/components/ui/states';
 import { accountDetailQueryOptions } from '@/features/accounts/api/accounts';
 import { AccountStatusBadge } from '@/features/accounts/components/account-status-badge';
 import { useCurrentUser } from '@/features/auth/components/current-user';
-import { ComingNote, Panel } from './cards';
+import { GrowerRoadmap } from '@/features/portal/components/grower-roadmap-page';
+import { Panel } from './cards';
 
 export function GrowerHome() {
   const user = useCurrentUser();
@@ -45,12 +46,11 @@ export function GrowerHome() {
         </Panel>
       )}
 
-      <div className="mt-6">
-        <ComingNote>
-          Your upgrade roadmap, season by season, and your pre-season reminders (check-up booking, meter calibration,
-          early-order deadlines) will appear here.
-        </ComingNote>
-      </div>
+      {user.accountId !== null && (
+        <div className="mt-6">
+          <GrowerRoadmap accountId={user.accountId} headingLevel="h2" />
+        </div>
+      )}
     </>
   );
 }
