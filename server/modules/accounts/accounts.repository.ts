@@ -47,14 +47,19 @@ export async function listAccounts(scope: WhereOptions, query: AccountListQuery)
   const desc = query.sort.startsWith('-');
   const column = sortColumns[query.sort.replace(/^-/, '')] ?? 'name';
   const order: Order = [[column, desc ? 'DESC' : 'ASC'], ['id', 'ASC']];
-  const { rows, count } = await Account.findAndCountAll({
-    where: { [Op.and]: where },
-    include,
-    order,
-    limit: query.pageSize,
-    offset: (query.page - 1) * query.pageSize,
-    distinct: true,
-  });
+  const whereAll = { [Op.and]: where };
+  // The count needs no joins and the page only the list's columns: both stay cheap on large books.
+  const [count, rows] = await Promise.all([
+    Account.count({ where: whereAll }),
+    Account.findAll({
+      where: whereAll,
+      attributes: ['id', 'name', 'status', 'town', 'state', 'territoryId', 'specialistId', 'lat', 'lng'],
+      include,
+      order,
+      limit: query.pageSize,
+      offset: (query.page - 1) * query.pageSize,
+    }),
+  ]);
   return { items: rows.map((r) => toSummary(r as Loaded)), total: count };
 }
 

@@ -129,17 +129,24 @@ export async function listPlanters(user: SessionUser, query: PlanterListQuery) {
   const desc = query.sort.startsWith('-');
   const key = query.sort.replace(/^-/, '');
   const order: Order = key === 'account' ? [[{ model: Account, as: 'account' }, 'name', desc ? 'DESC' : 'ASC'], ['id', 'ASC']] : [[planterSort[key], desc ? 'DESC' : 'ASC'], ['id', 'ASC']];
-  const { rows, count } = await Planter.findAndCountAll({
-    where: { [Op.and]: where },
-    include: [{ model: Account, as: 'account', attributes: ['id', 'name', 'territoryId'], where: { [Op.and]: accountWhere }, required: true }],
-    attributes: {
-      include: [[literal('(SELECT COUNT(*) FROM installs i WHERE i.planter_id = `Planter`.`id` AND i.status = \'installed\')'), 'installCount']],
-    },
-    order,
-    limit: query.pageSize,
-    offset: (query.page - 1) * query.pageSize,
-    subQuery: false,
-  });
+  const scoped = user.role !== 'admin';
+  const include = [{ model: Account, as: 'account', attributes: ['id', 'name', 'territoryId'], where: { [Op.and]: accountWhere }, required: true }];
+  // An admin's count needs no join unless the search reaches the account's name.
+  const countNeedsAccount = scoped || Boolean(query.q);
+  const [count, rows] = await Promise.all([
+    Planter.count({ where: { [Op.and]: where }, ...(countNeedsAccount ? { include } : {}) }),
+    Planter.findAll({
+      where: { [Op.and]: where },
+      include,
+      attributes: {
+        include: [[literal('(SELECT COUNT(*) FROM installs i WHERE i.planter_id = `Planter`.`id` AND i.status = \'installed\')'), 'installCount']],
+      },
+      order,
+      limit: query.pageSize,
+      offset: (query.page - 1) * query.pageSize,
+      subQuery: false,
+    }),
+  ]);
   return {
     items: rows.map((p) => {
       const acc = (p as Planter & { account: Account }).account;
