@@ -10,6 +10,7 @@ import { CATALOG } from './demo-catalog.js';
 import { seedDemoRoadmaps } from './demo-roadmap.js';
 import { seedDemoVisits } from './demo-visits.js';
 import { seedDemoReminders } from './demo-reminders.js';
+import { seedDemoQuotas } from './demo-forecast.js';
 import { catalogIds, emptyFleet, generateFleet, insertFleet, mulberry32, nextIds } from './fleet-generator.js';
 
 export const DEMO_PASSWORD = 'rowpath-demo';
@@ -128,4 +129,5 @@ export async function seedDemo(sequelize: Sequelize) {
   await seedDemoRoadmaps(sequelize);
   await seedDemoVisits(sequelize);
   await seedDemoReminders(sequelize);
+  await seedDemoQuotas(sequelize);
 }
