@@ -64,7 +64,8 @@ export function generateFleet(
       accountId: account.id,
       name: `${first} ${account.surname}`,
       roleOnFarm: c === 0 ? 'Owner-operator' : pick(rand, ['Partner', 'Equipment lead', 'Office manager']),
-      email: `${first.toLowerCase()}.${account.surname.toLowerCase().replace(/[^a-z]/g, '')}${account.id}@growers.rowpath.test`,
+      // The contact number keeps two contacts with one first name from sharing an address.
+      email: `${first.toLowerCase()}.${account.surname.toLowerCase().replace(/[^a-z]/g, '')}${account.id}${c ? `-${c + 1}` : ''}@growers.rowpath.test`,
       phone: `785-555-${String(1000 + Math.floor(rand() * 8999))}`,
       reminderOptIn: rand() > 0.1,
       ...stamp,
