@@ -9,12 +9,14 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { launchChromium, SCREENSHOT_DIR } from '../helpers/chromium.js';
 import { client, signedIn, uid } from '../helpers/app.js';
 import { startServer, type RunningServer } from '../helpers/server-process.js';
+import { navItemsByRole } from '../../src/app/layout/nav-items.js';
 
 const env = {
   PORT: process.env.E2E_PORT ?? '3390',
   DB_PORT: process.env.E2E_DB_PORT ?? '3391',
   ROWPATH_DATA_DIR: `.data/e2e-${process.env.E2E_PORT ?? '3390'}`,
   CLIENT_DIST_DIR: `.data/dist-${process.env.E2E_PORT ?? '3390'}`,
+  LOCAL_SMTP_PORT: process.env.E2E_SMTP_PORT ?? '3392',
 };
 const DEMO_PASSWORD = 'rowpath-demo';
 let server: RunningServer;
@@ -31,12 +33,10 @@ afterAll(async () => {
   await server?.stop();
 });
 
-const expectedNav: Record<string, string[]> = {
-  admin: ['Home', 'Accounts', 'Users'],
-  manager: ['Home', 'Accounts'],
-  specialist: ['Home', 'Accounts'],
-  grower: ['My operation'],
-};
+// Each role must see exactly its own menu, and the differences that matter are pinned here too.
+const expectedNav = Object.fromEntries(Object.entries(navItemsByRole).map(([role, items]) => [role, items.map((i) => i.label)]));
+const mustSee: Record<string, string[]> = { admin: ['Users', 'Accounts'], manager: ['Accounts'], specialist: ['Accounts'], grower: ['My operation'] };
+const mustNotSee: Record<string, string[]> = { admin: [], manager: ['Users'], specialist: ['Users'], grower: ['Accounts', 'Users', 'Catalog', 'Planters'] };
 
 describe('first start and sign-in for every role', () => {
   it('when the start command runs on an empty data directory, then it creates the database and loads the demo', () => {
@@ -60,6 +60,8 @@ describe('first start and sign-in for every role', () => {
         await page.waitForLoadState('networkidle');
         const links = (await nav.getByRole('link').allInnerTexts()).map((s) => s.trim()).filter(Boolean);
         expect(links).toEqual(expectedNav[role]);
+        for (const label of mustSee[role]) expect(links).toContain(label);
+        for (const label of mustNotSee[role]) expect(links).not.toContain(label);
         await page.screenshot({ path: path.join(SCREENSHOT_DIR, `foundation-home-${role}.png`), fullPage: true });
       } finally {
         await context.close();
