@@ -22,6 +22,7 @@ import { healthRouter } from './modules/health/health.router.js';
 import { remindersRouter } from './modules/reminders/reminders.router.js';
 import { territoriesRouter } from './modules/territories/territories.router.js';
 import { visitPlanningRouter } from './modules/visits/index.js';
+import { openapiRouter } from './modules/openapi/openapi.router.js';
 
 export interface AppDeps {
   sequelize: Sequelize;
@@ -80,6 +81,7 @@ export function createApp({ sequelize, config, clientDir, log = defaultLog }: Ap
   app.use('/api', forecastRouter(sequelize));
   app.use('/api/admin/users', adminUsersRouter(sequelize, securityLog));
   app.use('/api', visitPlanningRouter(sequelize, log));
+  app.use('/api', openapiRouter());
   app.use('/api', unknownRoute);
 
   if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
@@ -87,7 +89,7 @@ export function createApp({ sequelize, config, clientDir, log = defaultLog }: Ap
     // The client routes itself: any other GET gets the app's page.
     app.get('/{*splat}', (_req, res) => res.sendFile('index.html', { root: clientDir }));
   }
-  app.use(errorHandler(log));
+  app.use(errorHandler(log, securityLog));
   return app;
 }
 

@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
-import { BaseError, ConnectionError, UniqueConstraintError, ValidationError as SequelizeValidationError } from 'sequelize';
+import { BaseError, ConnectionError, DatabaseError, ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError } from 'sequelize';
 import { ZodError } from 'zod';
+import type { SecurityLog } from '../auth/security-log.js';
 
 export type ErrorDetails = { fields?: Record<string, string>; [key: string]: unknown };
 
@@ -42,11 +43,35 @@ export function isDatabaseDown(err: unknown): boolean {
   );
 }
 
+// MariaDB refusing a value the client sent (found by fuzzing: a number past a DECIMAL column's
+// range reached the INSERT). The shared schemas should bound such fields; until they all do, the
+// client still gets a 400 naming the field instead of a 500.
+const DB_INPUT_REFUSALS: Record<number, string> = {
+  1264: 'That value is out of range.', // ER_WARN_DATA_OUT_OF_RANGE
+  1406: 'That text is too long.', // ER_DATA_TOO_LONG
+  1366: 'That value cannot be stored.', // ER_TRUNCATED_WRONG_VALUE_FOR_FIELD (e.g. a lone surrogate)
+  1292: 'That value cannot be stored.', // ER_TRUNCATED_WRONG_VALUE
+};
+
+/** The 400 for a value MariaDB refused, with the column as a camelCase field name; null if not one. */
+export function databaseInputRefusal(err: unknown): { fields: Record<string, string> } | null {
+  if (!(err instanceof DatabaseError)) return null;
+  const parent = (err as { parent?: { errno?: number; message?: string; sqlMessage?: string } }).parent;
+  const message = parent?.errno ? DB_INPUT_REFUSALS[parent.errno] : undefined;
+  if (!message) return null;
+  const column = /column '([^']+)'/.exec(parent?.sqlMessage ?? parent?.message ?? '')?.[1];
+  return { fields: { [column ? camel(column) : '_']: message } };
+}
+
+const camel = (column: string) => column.replace(/_([a-z0-9])/g, (_m, c: string) => c.toUpperCase());
+
 export const unknownRoute: RequestHandler = (req, _res, next) => {
   next(new AppError('not_found', 404, `No API route ${req.method} ${req.path}.`));
 };
 
-export function errorHandler(log: (msg: string, err?: unknown) => void): ErrorRequestHandler {
+/** Maps every error to the one error shape. A 403 refusal is also written to the security log
+ * (CSRF refusals are logged where they happen, in the CSRF check). */
+export function errorHandler(log: (msg: string, err?: unknown) => void, securityLog?: SecurityLog): ErrorRequestHandler {
   return (err, req, res, _next) => {
     let status = 500;
     let body: { code: string; message: string; details?: ErrorDetails };
@@ -75,6 +100,16 @@ export function errorHandler(log: (msg: string, err?: unknown) => void): ErrorRe
       const fields: Record<string, string> = {};
       for (const item of err.errors ?? []) if (item.path) fields[item.path] = item.message;
       body = { code: 'validation', message: 'Some fields need attention.', details: { fields } };
+    } else if (databaseInputRefusal(err)) {
+      status = 400;
+      body = { code: 'validation', message: 'Some fields need attention.', details: { ...databaseInputRefusal(err)!, refusedBy: 'database' } };
+    } else if (err instanceof ForeignKeyConstraintError) {
+      // A reference to a record that does not exist (insert) or a record others still use (delete).
+      const inUse = (err as { parent?: { errno?: number } }).parent?.errno === 1451;
+      status = inUse ? 409 : 400;
+      body = inUse
+        ? { code: 'in_use', message: 'Other records still use this one, so it cannot be removed.' }
+        : { code: 'validation', message: 'Some fields need attention.', details: { fields: Object.fromEntries((Array.isArray(err.fields) ? err.fields : ['_']).map((f) => [camel(String(f)), 'That record does not exist.'])) } };
     } else if (isDatabaseDown(err)) {
       status = 503;
       res.setHeader('Retry-After', '5');
@@ -86,6 +121,9 @@ export function errorHandler(log: (msg: string, err?: unknown) => void): ErrorRe
         status === 503
           ? { code: 'db_unavailable', message: 'The database is not reachable just now. Try again in a moment.' }
           : { code: 'internal', message: 'Something went wrong on our side. It has been logged.' };
+    }
+    if (status === 403 && body.code !== 'csrf') {
+      securityLog?.('access_refused', { userId: req.user?.id ?? null, ip: req.ip, detail: `${req.method} ${req.originalUrl.split('?')[0]} ${body.code}` });
     }
     if (res.headersSent) return;
     res.status(status).json({ error: body.details ? body : { code: body.code, message: body.message } });

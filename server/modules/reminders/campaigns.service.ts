@@ -274,6 +274,12 @@ export async function testSendCampaign(sequelize: Sequelize, user: SessionUser, 
     });
     return { sent: true, to, messageId: message.messageId, smtpResponse: String((info as { response?: string }).response ?? '') };
   } catch (err) {
+    // A permanent refusal of the recipient (5xx on the envelope) is about the address the user
+    // typed, not the mail server's health: say so on the field.
+    const e = err as { code?: string; responseCode?: number };
+    if (e.code === 'EENVELOPE' && (e.responseCode ?? 0) >= 500) {
+      throw new AppError('validation', 400, 'Some fields need attention.', { fields: { to: `The mail server refused this address: ${describeMailError(err)}` } });
+    }
     throw new AppError('smtp_unavailable', 502, `The test message could not be handed to the mail server: ${describeMailError(err)}`);
   } finally {
     transport.close();
