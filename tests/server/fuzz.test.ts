@@ -247,7 +247,7 @@ const KIND_BY_SEGMENT: Record<string, IdKind> = {
 
 function idKindOf(route: LiveRoute, doc?: RouteDoc): IdKind | undefined {
   if (doc?.idKind) return doc.idKind;
-  const segment = route.path.split('/').find((part, i, all) => all[i + 1] === ':id');
+  const segment = route.path.split('/').find((_part, i, all) => all[i + 1] === ':id');
   return segment ? KIND_BY_SEGMENT[segment] : undefined;
 }
 

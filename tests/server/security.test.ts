@@ -18,7 +18,7 @@ import { startSmtpStandIn, type SmtpStandIn } from '../../server/mail/smtp-stand
 import { discoverApiRoutes, routeKey, type LiveRoute } from '../../server/modules/openapi/discover.js';
 import { exampleFor } from '../../server/modules/openapi/examples.js';
 import { bindIds, makeOneOfEach, type Fixtures } from '../../server/modules/openapi/fixtures.js';
-import { ACCOUNT_OWNED, ROUTES, type IdKind, type RouteDoc } from '../../server/modules/openapi/registry.js';
+import { ACCOUNT_OWNED, ROUTES, type IdKind } from '../../server/modules/openapi/registry.js';
 import { client, makeAccount, makeTerritory, makeUser, PASSWORD, signedIn, testApp, uid, type TestApp } from '../helpers/app.js';
 
 type Client = Awaited<ReturnType<typeof signedIn>>;
