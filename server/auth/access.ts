@@ -38,3 +38,22 @@ export function canSeeAccount(user: SessionUser, account: { id: number; territor
 export function canEditAccount(user: SessionUser, account: { id: number; territoryId: number }): boolean {
   return user.role !== 'grower' && canSeeAccount(user, account);
 }
+
+/**
+ * accountScope as a plain SQL condition on an accounts table alias, for the few hot reads written
+ * in SQL (the list pages). Same rule, same deny-by-default; kept next to accountScope so that the
+ * two change together (tests/server/access-sql.test.ts checks they agree).
+ */
+export function accountScopeSql(user: SessionUser, alias: string): { sql: string; replacements: unknown[] } {
+  switch (user.role) {
+    case 'admin':
+      return { sql: '1 = 1', replacements: [] };
+    case 'manager':
+    case 'specialist':
+      return { sql: `${alias}.territory_id IN (?)`, replacements: [user.territoryIds.length ? user.territoryIds : [-1]] };
+    case 'grower':
+      return { sql: `${alias}.id = ?`, replacements: [user.accountId ?? -1] };
+    default:
+      return { sql: '1 = 0', replacements: [] };
+  }
+}

@@ -5,10 +5,10 @@ import session from 'express-session';
 import connectSessionSequelize from 'connect-session-sequelize';
 import passport from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
-import type { Sequelize } from 'sequelize';
+import { QueryTypes, type Sequelize } from 'sequelize';
 import type { SessionUser } from '../../shared/schemas/auth.js';
 import type { Config } from '../config.js';
-import { Territory, User } from '../db/models/index.js';
+import { User } from '../db/models/index.js';
 import { AppError } from '../http/errors.js';
 import type { SecurityLog } from './security-log.js';
 
@@ -25,17 +25,26 @@ export const SESSION_COOKIE = 'rowpath.sid';
 // and known accounts take the same time to refuse.
 const DUMMY_HASH = bcrypt.hashSync(randomBytes(12).toString('hex'), 10);
 
+type SessionUserRow = { id: number; email: string; name: string; role: SessionUser['role']; disabled: number | boolean; accountId: number | null; territoryIds: string | null };
+
+/**
+ * The signed-in user with their territories, read on every signed-in request: one plain query
+ * (no model instances), so that a list page does not pay more for who is asking than for its rows.
+ */
 export async function loadSessionUser(id: number): Promise<SessionUser | null> {
-  const user = await User.findByPk(id, { include: [{ model: Territory, as: 'territories', attributes: ['id'], through: { attributes: [] } }] });
-  if (!user || user.disabled) return null;
-  const territories = (user as unknown as { territories: { id: number }[] }).territories ?? [];
+  const [row] = await User.sequelize!.query<SessionUserRow>(
+    'SELECT u.id, u.email, u.name, u.role, u.disabled, u.account_id AS accountId, GROUP_CONCAT(ut.territory_id ORDER BY ut.territory_id) AS territoryIds ' +
+      'FROM users u LEFT JOIN user_territories ut ON ut.user_id = u.id WHERE u.id = ? GROUP BY u.id',
+    { replacements: [id], type: QueryTypes.SELECT },
+  );
+  if (!row || row.disabled) return null;
   return {
-    id: user.id,
-    email: user.email,
-    name: user.name,
-    role: user.role,
-    territoryIds: territories.map((t) => t.id).sort((a, b) => a - b),
-    accountId: user.accountId,
+    id: row.id,
+    email: row.email,
+    name: row.name,
+    role: row.role,
+    territoryIds: row.territoryIds ? row.territoryIds.split(',').map(Number) : [],
+    accountId: row.accountId,
   };
 }
 
@@ -52,9 +61,19 @@ export function newCsrfToken() {
 /** Sessions in MariaDB, Passport on top, idle and absolute lifetimes, and the CSRF check. */
 export function installSessions(app: Express, sequelize: Sequelize, config: Config, securityLog: SecurityLog) {
   const SequelizeStore = connectSessionSequelize(session.Store);
+  // Every signed-in request reads its session: a plain query by primary key instead of a model
+  // lookup. Writes, deletes and the expiry sweep stay with the package.
+  class SessionStore extends SequelizeStore {
+    override get(sid: string, fn: (err: unknown, data?: session.SessionData | null) => void) {
+      sequelize
+        .query<{ data: string | null }>('SELECT data FROM sessions WHERE sid = ?', { replacements: [sid], type: QueryTypes.SELECT })
+        .then(([row]) => (row?.data ? (JSON.parse(row.data) as session.SessionData) : null))
+        .then((data) => fn(null, data), fn);
+    }
+  }
   const idleMs = config.SESSION_IDLE_MINUTES * 60_000;
   const maxMs = config.SESSION_MAX_HOURS * 3_600_000;
-  const store = new SequelizeStore({
+  const store = new SessionStore({
     db: sequelize,
     table: 'Session',
     // Expired rows are swept every 15 minutes; each request checks the lifetimes itself.
@@ -64,7 +83,7 @@ export function installSessions(app: Express, sequelize: Sequelize, config: Conf
       ...defaults,
       userId: s.passport?.user ?? null,
     }),
-  } as unknown as ConstructorParameters<typeof SequelizeStore>[0]);
+  } as unknown as ConstructorParameters<typeof SessionStore>[0]);
 
   if (config.TRUST_PROXY) app.set('trust proxy', config.TRUST_PROXY);
   app.use(

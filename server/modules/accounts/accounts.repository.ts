@@ -1,4 +1,6 @@
-import { Op, type Order, type WhereOptions } from 'sequelize';
+import { Op, QueryTypes, type WhereOptions } from 'sequelize';
+import type { SessionUser } from '../../../shared/schemas/auth.js';
+import { accountScopeSql } from '../../auth/access.js';
 import type { AccountListQuery } from '../../../shared/schemas/accounts.js';
 import { Account, AuditEvent, Contact, FarmSite, Planter, Territory, Tractor, User } from '../../db/models/index.js';
 import { literal } from 'sequelize';
@@ -34,33 +36,53 @@ function toDetail(a: Loaded) {
   return { ...toSummary(a), address: a.address, notes: a.notes, acresByCrop: a.acresByCrop ?? {}, version: a.version, updatedAt: a.updatedAt };
 }
 
-const sortColumns: Record<string, string> = { name: 'name', town: 'town', status: 'status', updatedAt: 'updatedAt' };
+const sortColumns: Record<string, string[]> = { name: ['name', 'town'], town: ['town', 'name'], status: ['status', 'name'], updatedAt: ['updated_at'] };
 
-export async function listAccounts(scope: WhereOptions, query: AccountListQuery) {
-  const where: WhereOptions[] = [scope];
+type SummaryRow = { id: number; name: string; status: AccountSummary['status']; town: string | null; state: string | null; territoryId: number; territoryName: string | null; specialistId: number | null; specialistName: string | null; lat: string | number | null; lng: string | number | null };
+
+/**
+ * One page of the accounts a user may see. The busiest read of the app, so plain SQL: a count,
+ * and a page whose ids are found on the narrow (name, town) index before the rows and their
+ * territory and specialist names are read ("deferred join"), so that a deep page or a search
+ * does not sort whole rows.
+ */
+export async function listAccounts(user: SessionUser, query: AccountListQuery) {
+  const sequelize = Account.sequelize!;
+  const scope = accountScopeSql(user, 'a');
+  const conditions = [scope.sql];
+  const replacements: unknown[] = [...scope.replacements];
   if (query.q) {
     const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-    where.push({ [Op.or]: [{ name: { [Op.like]: like } }, { town: { [Op.like]: like } }] });
+    conditions.push('(a.name LIKE ? OR a.town LIKE ?)');
+    replacements.push(like, like);
   }
-  if (query.territoryId) where.push({ territoryId: query.territoryId });
-  if (query.status) where.push({ status: query.status });
-  const desc = query.sort.startsWith('-');
-  const column = sortColumns[query.sort.replace(/^-/, '')] ?? 'name';
-  const order: Order = [[column, desc ? 'DESC' : 'ASC'], ['id', 'ASC']];
-  const whereAll = { [Op.and]: where };
-  // The count needs no joins and the page only the list's columns: both stay cheap on large books.
-  const [count, rows] = await Promise.all([
-    Account.count({ where: whereAll }),
-    Account.findAll({
-      where: whereAll,
-      attributes: ['id', 'name', 'status', 'town', 'state', 'territoryId', 'specialistId', 'lat', 'lng'],
-      include,
-      order,
-      limit: query.pageSize,
-      offset: (query.page - 1) * query.pageSize,
-    }),
+  if (query.territoryId) {
+    conditions.push('a.territory_id = ?');
+    replacements.push(query.territoryId);
+  }
+  if (query.status) {
+    conditions.push('a.status = ?');
+    replacements.push(query.status);
+  }
+  const where = conditions.join(' AND ');
+  const dir = query.sort.startsWith('-') ? 'DESC' : 'ASC';
+  // Ties are broken by the next column and then the id, in the same direction, so that an index
+  // read backwards serves a descending sort.
+  const orderBy = [...(sortColumns[query.sort.replace(/^-/, '')] ?? sortColumns.name), 'id'].map((c) => `a.${c} ${dir}`).join(', ');
+  const [[{ total }], rows] = await Promise.all([
+    sequelize.query<{ total: number | bigint }>(`SELECT COUNT(*) AS total FROM accounts a WHERE ${where}`, { replacements, type: QueryTypes.SELECT }),
+    sequelize.query<SummaryRow>(
+      'SELECT a.id, a.name, a.status, a.town, a.state, a.territory_id AS territoryId, t.name AS territoryName, a.specialist_id AS specialistId, s.name AS specialistName, a.lat, a.lng ' +
+        `FROM (SELECT a.id FROM accounts a WHERE ${where} ORDER BY ${orderBy} LIMIT ? OFFSET ?) page ` +
+        'JOIN accounts a ON a.id = page.id LEFT JOIN territories t ON t.id = a.territory_id LEFT JOIN users s ON s.id = a.specialist_id ' +
+        `ORDER BY ${orderBy}`,
+      { replacements: [...replacements, query.pageSize, (query.page - 1) * query.pageSize], type: QueryTypes.SELECT },
+    ),
   ]);
-  return { items: rows.map((r) => toSummary(r as Loaded)), total: count };
+  return {
+    items: rows.map((r) => ({ ...r, lat: r.lat === null ? null : Number(r.lat), lng: r.lng === null ? null : Number(r.lng) })),
+    total: Number(total),
+  };
 }
 
 export async function findAccount(scope: WhereOptions, id: number) {

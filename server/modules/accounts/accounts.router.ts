@@ -18,7 +18,7 @@ export function accountsRouter(sequelize: Sequelize) {
   router.use(requireAuth);
 
   router.get('/', validate('query', accountListQuerySchema), async (req, res) => {
-    res.json(await listAccounts(accountScope(req.user!), parsed<AccountListQuery>(res, 'query')));
+    res.json(await listAccounts(req.user!, parsed<AccountListQuery>(res, 'query')));
   });
 
   router.post('/', validate('body', accountSchema), async (req, res) => {

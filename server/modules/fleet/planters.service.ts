@@ -1,7 +1,7 @@
-import { Op, literal, type Order, type Sequelize, type Transaction, type WhereOptions } from 'sequelize';
+import { Op, QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { SessionUser } from '../../../shared/schemas/auth.js';
 import type { InstallInput, PlanterInput, PlanterListQuery } from '../../../shared/schemas/fleet.js';
-import { accountScope } from '../../auth/access.js';
+import { accountScopeSql } from '../../auth/access.js';
 import { Account, Component, FarmSite, Install, Planter, Toolbar, Tractor } from '../../db/models/index.js';
 import { notFound, validationError } from '../../http/errors.js';
 import { accountFor, assertVersion, audit, diff, mapLockError } from './fleet-access.js';
@@ -114,56 +114,53 @@ export async function deletePlanter(sequelize: Sequelize, user: SessionUser, id:
   });
 }
 
-const planterSort: Record<string, string> = { name: 'name', rows: 'rows', modelYear: 'modelYear' };
+const planterSort: Record<string, string> = { name: 'p.name', rows: 'p.rows', modelYear: 'p.model_year', account: 'a.name' };
 
-/** Planters across the accounts the user may see, paged on the server. */
+type PlanterRow = { id: number; name: string; maker: string | null; modelYear: number | null; rows: number; rowSpacingIn: string | number; frameType: string; accountId: number; accountName: string; installCount: number | bigint };
+
+/**
+ * Planters across the accounts the user may see, paged on the server. Plain SQL, like the accounts
+ * list: the page's ids are found first (in index order where the sort allows: see the fleet-list
+ * indexes), then only those rows are read with their account name and install count.
+ */
 export async function listPlanters(user: SessionUser, query: PlanterListQuery) {
-  const accountWhere: WhereOptions[] = [accountScope(user)];
-  const where: WhereOptions[] = [];
-  if (query.accountId) where.push({ accountId: query.accountId });
-  if (query.minRows) where.push({ rows: { [Op.gte]: query.minRows } });
+  const sequelize = Planter.sequelize!;
+  const scope = accountScopeSql(user, 'a');
+  const conditions = [scope.sql];
+  const replacements: unknown[] = [...scope.replacements];
+  if (query.accountId) {
+    conditions.push('p.account_id = ?');
+    replacements.push(query.accountId);
+  }
+  if (query.minRows) {
+    conditions.push('p.rows >= ?');
+    replacements.push(query.minRows);
+  }
   if (query.q) {
     const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-    where.push({ [Op.or]: [{ name: { [Op.like]: like } }, { maker: { [Op.like]: like } }, { '$account.name$': { [Op.like]: like } }] });
+    conditions.push('(p.name LIKE ? OR p.maker LIKE ? OR a.name LIKE ?)');
+    replacements.push(like, like, like);
   }
+  const where = conditions.join(' AND ');
   const desc = query.sort.startsWith('-');
   const key = query.sort.replace(/^-/, '');
-  const order: Order = key === 'account' ? [[{ model: Account, as: 'account' }, 'name', desc ? 'DESC' : 'ASC'], ['id', 'ASC']] : [[planterSort[key], desc ? 'DESC' : 'ASC'], ['id', 'ASC']];
-  const scoped = user.role !== 'admin';
-  const include = [{ model: Account, as: 'account', attributes: ['id', 'name', 'territoryId'], where: { [Op.and]: accountWhere }, required: true }];
-  // An admin's count needs no join unless the search reaches the account's name.
-  const countNeedsAccount = scoped || Boolean(query.q);
-  const [count, rows] = await Promise.all([
-    Planter.count({ where: { [Op.and]: where }, ...(countNeedsAccount ? { include } : {}) }),
-    Planter.findAll({
-      where: { [Op.and]: where },
-      include,
-      attributes: {
-        include: [[literal('(SELECT COUNT(*) FROM installs i WHERE i.planter_id = `Planter`.`id` AND i.status = \'installed\')'), 'installCount']],
-      },
-      order,
-      limit: query.pageSize,
-      offset: (query.page - 1) * query.pageSize,
-      subQuery: false,
-    }),
+  // Ties by id ascending in both directions: the order the planters_rows_desc_id index holds.
+  const orderBy = `${planterSort[key] ?? 'p.name'} ${desc ? 'DESC' : 'ASC'}, p.id ASC`;
+  // An admin's list needs the account only to search or sort by its name.
+  const from = user.role !== 'admin' || query.q || key === 'account' ? 'planters p JOIN accounts a ON a.id = p.account_id' : 'planters p';
+  const [[{ total }], rows] = await Promise.all([
+    sequelize.query<{ total: number | bigint }>(`SELECT COUNT(*) AS total FROM ${from} WHERE ${where}`, { replacements, type: QueryTypes.SELECT }),
+    sequelize.query<PlanterRow>(
+      'SELECT p.id, p.name, p.maker, p.model_year AS modelYear, p.rows, p.row_spacing_in AS rowSpacingIn, p.frame_type AS frameType, a.id AS accountId, a.name AS accountName, ' +
+        "(SELECT COUNT(*) FROM installs i WHERE i.planter_id = p.id AND i.status = 'installed') AS installCount " +
+        `FROM (SELECT p.id FROM ${from} WHERE ${where} ORDER BY ${orderBy} LIMIT ? OFFSET ?) page ` +
+        `JOIN planters p ON p.id = page.id JOIN accounts a ON a.id = p.account_id ORDER BY ${orderBy}`,
+      { replacements: [...replacements, query.pageSize, (query.page - 1) * query.pageSize], type: QueryTypes.SELECT },
+    ),
   ]);
   return {
-    items: rows.map((p) => {
-      const acc = (p as Planter & { account: Account }).account;
-      return {
-        id: p.id,
-        name: p.name,
-        maker: p.maker,
-        modelYear: p.modelYear,
-        rows: p.rows,
-        rowSpacingIn: Number(p.rowSpacingIn),
-        frameType: p.frameType,
-        accountId: acc.id,
-        accountName: acc.name,
-        installCount: Number(p.get('installCount')),
-      };
-    }),
-    total: count,
+    items: rows.map((r) => ({ ...r, rowSpacingIn: Number(r.rowSpacingIn), installCount: Number(r.installCount) })),
+    total: Number(total),
   };
 }
 
