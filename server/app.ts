@@ -58,6 +58,14 @@ export function createApp({ sequelize, config, clientDir, log = defaultLog }: Ap
     }),
   );
   const securityLog = securityLogger(sequelize);
+  // API answers are never cached (Cache-Control: no-store below), so an ETag would only cost a
+  // hash of every body.
+  app.set('etag', false);
+
+  // The built client's files need no session: served before the session is read, so that a page
+  // load's scripts, fonts and map tiles cost no database round trips.
+  const hasClient = Boolean(clientDir && fs.existsSync(path.join(clientDir, 'index.html')));
+  if (hasClient) app.use(express.static(clientDir!, { index: false, maxAge: '1h', setHeaders: immutableAssets }));
 
   app.use('/api/health', healthRouter(sequelize));
   app.use('/api', express.json({ limit: '1mb' }));
@@ -84,8 +92,7 @@ export function createApp({ sequelize, config, clientDir, log = defaultLog }: Ap
   app.use('/api', openapiRouter());
   app.use('/api', unknownRoute);
 
-  if (clientDir && fs.existsSync(path.join(clientDir, 'index.html'))) {
-    app.use(express.static(clientDir, { index: false, maxAge: '1h', setHeaders: immutableAssets }));
+  if (hasClient) {
     // The client routes itself: any other GET gets the app's page.
     app.get('/{*splat}', (_req, res) => res.sendFile('index.html', { root: clientDir }));
   }

@@ -1,4 +1,4 @@
-import { Op, QueryTypes, type WhereOptions } from 'sequelize';
+import { Op, QueryTypes, type Transaction, type WhereOptions } from 'sequelize';
 import type { SessionUser } from '../../../shared/schemas/auth.js';
 import { accountScopeSql } from '../../auth/access.js';
 import type { AccountListQuery } from '../../../shared/schemas/accounts.js';
@@ -85,28 +85,34 @@ export async function listAccounts(user: SessionUser, query: AccountListQuery) {
   };
 }
 
-export async function findAccount(scope: WhereOptions, id: number) {
-  const account = await Account.findOne({ where: { [Op.and]: [scope, { id }] }, include });
+export async function findAccount(scope: WhereOptions, id: number, transaction?: Transaction) {
+  const account = await Account.findOne({ where: { [Op.and]: [scope, { id }] }, include, transaction });
   return account ? toDetail(account as Loaded) : null;
 }
 
 /**
  * The account with its whole fleet summary. A fixed number of queries whatever the fleet's size
- * (one per kind of record), never one per planter.
+ * (one per kind of record), never one per planter. Inside a transaction (a create answering with
+ * what it saved) the reads go one after another on its connection.
  */
-export async function findAccountWithFleet(scope: WhereOptions, id: number) {
-  const account = await findAccount(scope, id);
+export async function findAccountWithFleet(scope: WhereOptions, id: number, transaction?: Transaction) {
+  const account = await findAccount(scope, id, transaction);
   if (!account) return null;
-  const [contacts, farmSites, tractors, planters] = await Promise.all([
-    Contact.findAll({ where: { accountId: id }, order: [['name', 'ASC']] }),
-    FarmSite.findAll({ where: { accountId: id }, order: [['name', 'ASC']] }),
-    Tractor.findAll({ where: { accountId: id }, order: [['name', 'ASC']] }),
-    Planter.findAll({
-      where: { accountId: id },
-      attributes: { include: [[literal("(SELECT COUNT(*) FROM installs i WHERE i.planter_id = `Planter`.`id` AND i.status = 'installed')"), 'installCount']] },
-      order: [['name', 'ASC']],
-    }),
-  ]);
+  const reads = [
+    () => Contact.findAll({ where: { accountId: id }, order: [['name', 'ASC']], transaction }),
+    () => FarmSite.findAll({ where: { accountId: id }, order: [['name', 'ASC']], transaction }),
+    () => Tractor.findAll({ where: { accountId: id }, order: [['name', 'ASC']], transaction }),
+    () =>
+      Planter.findAll({
+        where: { accountId: id },
+        attributes: { include: [[literal("(SELECT COUNT(*) FROM installs i WHERE i.planter_id = `Planter`.`id` AND i.status = 'installed')"), 'installCount']] },
+        order: [['name', 'ASC']],
+        transaction,
+      }),
+  ] as const;
+  const [contacts, farmSites, tractors, planters] = transaction
+    ? [await reads[0](), await reads[1](), await reads[2](), await reads[3]()]
+    : await Promise.all([reads[0](), reads[1](), reads[2](), reads[3]()]);
   return {
     ...account,
     contacts: contacts.map((c) => plain(c)),

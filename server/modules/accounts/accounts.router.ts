@@ -22,8 +22,7 @@ export function accountsRouter(sequelize: Sequelize) {
   });
 
   router.post('/', validate('body', accountSchema), async (req, res) => {
-    const id = await createAccount(sequelize, req.user!, parsed<AccountInput>(res, 'body'));
-    res.status(201).json({ account: await findAccountWithFleet(accountScope(req.user!), id) });
+    res.status(201).json({ account: await createAccount(sequelize, req.user!, parsed<AccountInput>(res, 'body')) });
   });
 
   router.get('/:id', validate('params', idParamSchema), async (req, res) => {

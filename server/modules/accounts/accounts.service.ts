@@ -1,10 +1,12 @@
 import type { Sequelize } from 'sequelize';
 import type { AccountInput } from '../../../shared/schemas/accounts.js';
 import type { SessionUser } from '../../../shared/schemas/auth.js';
+import { accountScope } from '../../auth/access.js';
 import { Account, User, UserTerritory } from '../../db/models/index.js';
 import { AppError, notFound, validationError } from '../../http/errors.js';
 import { accountFor, assertVersion, audit, diff, mapLockError } from '../fleet/fleet-access.js';
 import { plain } from '../fleet/plain.js';
+import { findAccountWithFleet } from './accounts.repository.js';
 
 async function checkPlacement(user: SessionUser, input: Pick<AccountInput, 'territoryId' | 'specialistId'>) {
   const fields: Record<string, string> = {};
@@ -24,7 +26,8 @@ export async function createAccount(sequelize: Sequelize, user: SessionUser, inp
   return sequelize.transaction(async (transaction) => {
     const account = await Account.create(input, { transaction });
     await audit(transaction, { accountId: account.id, userId: user.id, entity: 'account', entityId: account.id, action: 'create', summary: `Opened the account ${input.name}` });
-    return account.id;
+    // The answer is read before the commit, so a saved account is never reported as an error.
+    return (await findAccountWithFleet(accountScope(user), account.id, transaction))!;
   });
 }
 

@@ -24,9 +24,13 @@ async function checkOwnedRefs(accountId: number, input: { tractorId: number | nu
   if (Object.keys(fields).length) throw validationError(fields);
 }
 
-/** Staff of the account's territory. Creates the planter and its toolbars in one transaction. */
+/**
+ * Staff of the account's territory. Creates the planter and its toolbars in one transaction, and
+ * reads the answer inside it: once the commit succeeds nothing is left to fail, so a client never
+ * gets an error for a planter that was in fact saved (and never duplicates it by retrying).
+ */
 export async function createPlanter(sequelize: Sequelize, user: SessionUser, accountId: number, input: PlanterInput) {
-  const id = await sequelize.transaction(async (transaction) => {
+  return sequelize.transaction(async (transaction) => {
     await accountFor(user, accountId, 'edit', transaction);
     await checkOwnedRefs(accountId, input, transaction);
     const { toolbars, ...fields } = input;
@@ -36,21 +40,24 @@ export async function createPlanter(sequelize: Sequelize, user: SessionUser, acc
       { transaction },
     );
     await audit(transaction, { accountId, userId: user.id, entity: 'planter', entityId: planter.id, action: 'create', summary: `Added planter ${label(input)}` });
-    return planter.id;
+    return getPlanter(user, planter.id, transaction);
   });
-  return getPlanter(user, id);
 }
 
 /** Anyone who may see the account: the planter with its toolbars, tractor and every install. */
-export async function getPlanter(user: SessionUser, id: number) {
-  const planter = await Planter.findByPk(id);
+export async function getPlanter(user: SessionUser, id: number, transaction?: Transaction) {
+  const planter = await Planter.findByPk(id, { transaction });
   if (!planter) throw notFound('That planter');
-  const account = await accountFor(user, planter.accountId, 'read');
-  const [toolbars, installs, tractor] = await Promise.all([
-    Toolbar.findAll({ where: { planterId: id }, order: [['position', 'ASC']] }),
-    Install.findAll({ where: { planterId: id }, include: [{ model: Component, as: 'component' }], order: [['installDate', 'ASC'], ['id', 'ASC']] }),
-    planter.tractorId ? Tractor.findByPk(planter.tractorId) : Promise.resolve(null),
-  ]);
+  const account = await accountFor(user, planter.accountId, 'read', transaction);
+  // One after another inside a transaction (it holds one connection); side by side otherwise.
+  const reads = [
+    () => Toolbar.findAll({ where: { planterId: id }, order: [['position', 'ASC']], transaction }),
+    () => Install.findAll({ where: { planterId: id }, include: [{ model: Component, as: 'component' }], order: [['installDate', 'ASC'], ['id', 'ASC']], transaction }),
+    () => (planter.tractorId ? Tractor.findByPk(planter.tractorId, { transaction }) : Promise.resolve(null)),
+  ] as const;
+  const [toolbars, installs, tractor] = transaction
+    ? [await reads[0](), await reads[1](), await reads[2]()]
+    : await Promise.all([reads[0](), reads[1](), reads[2]()]);
   return {
     ...plain(planter, PLANTER_NUMBERS),
     accountName: account.name,
