@@ -12,6 +12,8 @@ const optionalText = (max: number) =>
     .nullish()
     .transform((v) => (v ? v : null));
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-03-15');
+// Upper bounds below are far above any row-crop tractor, planter or part (common practice) and
+// inside the database columns, so an absurd value gets a field message rather than a column error.
 const positive = (what: string) => z.number({ error: `${what} must be a number` }).positive(`${what} must be more than 0`).finite();
 const nonNegative = (what: string) => z.number({ error: `${what} must be a number` }).min(0, `${what} cannot be negative`).finite();
 const intIn = (what: string, min: number, max: number) =>
@@ -44,10 +46,10 @@ export type FarmSiteInput = z.infer<typeof farmSiteSchema>;
 export const tractorSchema = z.object({
   name: trimmed(120, 'Name the tractor'),
   modelYear,
-  hydraulicFlowGpm: positive('Hydraulic flow'),
-  hydraulicPressurePsi: positive('Hydraulic pressure'),
+  hydraulicFlowGpm: positive('Hydraulic flow').max(250, 'Hydraulic flow must be at most 250 gpm'),
+  hydraulicPressurePsi: positive('Hydraulic pressure').max(6000, 'Hydraulic pressure must be at most 6,000 psi'),
   remoteValves: intIn('Remote valves', 0, 12),
-  ptoHp: positive('PTO horsepower').nullish().transform((v) => v ?? null),
+  ptoHp: positive('PTO horsepower').max(1000, 'PTO horsepower must be at most 1,000 hp').nullish().transform((v) => v ?? null),
 });
 export type TractorInput = z.infer<typeof tractorSchema>;
 
@@ -60,7 +62,7 @@ export const toolbarSchema = z.object({
   /** Present when changing a toolbar that exists; absent for a new one. */
   id: z.number().int().positive().optional(),
   name: trimmed(80, 'Name the toolbar (e.g. Main bar)'),
-  sizeFt: positive('Toolbar size'),
+  sizeFt: positive('Toolbar size').max(200, 'Toolbar size must be at most 200 ft'),
   firstRow: intIn('First row', 1, 96),
   lastRow: intIn('Last row', 1, 96),
 });
@@ -76,12 +78,12 @@ export const planterSchema = z
     frameType: z.enum(frameTypes, { error: `Frame type is one of ${frameTypes.join(', ')}` }),
     foldType: z.enum(foldTypes, { error: `Fold type is one of ${foldTypes.join(', ')}` }),
     seedSupplyType: z.enum(seedSupplyTypes, { error: 'Seed supply is row hoppers or central fill' }),
-    seedCapacityUnits: positive('Seed capacity').nullish().transform((v) => v ?? null),
+    seedCapacityUnits: positive('Seed capacity').max(10_000, 'Seed capacity must be at most 10,000').nullish().transform((v) => v ?? null),
     liquidTankCount: intIn('Liquid tanks', 0, 8).default(0),
-    liquidTankGallons: nonNegative('Tank size').default(0),
-    dryCapacityLb: nonNegative('Dry fertilizer capacity').default(0),
+    liquidTankGallons: nonNegative('Tank size').max(10_000, 'Tank size must be at most 10,000 gal').default(0),
+    dryCapacityLb: nonNegative('Dry fertilizer capacity').max(100_000, 'Dry fertilizer capacity must be at most 100,000 lb').default(0),
     markers: z.boolean().default(false),
-    acresPerYear: nonNegative('Acres per year').nullish().transform((v) => v ?? null),
+    acresPerYear: nonNegative('Acres per year').max(1_000_000, 'Acres per year must be at most 1,000,000').nullish().transform((v) => v ?? null),
     tractorId: z.number().int().positive().nullish().transform((v) => v ?? null),
     farmSiteId: z.number().int().positive().nullish().transform((v) => v ?? null),
     toolbars: z.array(toolbarSchema).min(1, 'A planter has at least one toolbar').max(4, 'At most 4 toolbars'),
@@ -123,13 +125,13 @@ export const componentSchema = z.object({
   name: trimmed(160, 'Name the component'),
   maker: optionalText(80),
   partNumber: trimmed(40, 'Enter the dealer part number'),
-  priceUsd: nonNegative('Price'),
-  labourHours: nonNegative('Install labour'),
+  priceUsd: nonNegative('Price').max(1_000_000, 'Price must be at most $1,000,000'),
+  labourHours: nonNegative('Install labour').max(500, 'Install labour must be at most 500 h'),
   expectedLifeYears: positive('Expected life').max(40, 'Expected life must be at most 40 years'),
   unit: z.enum(componentUnits, { error: 'Unit is per row, per toolbar or per planter' }),
-  hydraulicGpm: nonNegative('Hydraulic demand').nullish().transform((v) => v ?? null),
+  hydraulicGpm: nonNegative('Hydraulic demand').max(100, 'Hydraulic demand must be at most 100 gpm').nullish().transform((v) => v ?? null),
   ratedMaxSpeedMph: positive('Rated maximum speed').max(20, 'Rated speed must be at most 20 mph').nullish().transform((v) => v ?? null),
-  maxSeedsPerSecond: positive('Rated seeds per second').nullish().transform((v) => v ?? null),
+  maxSeedsPerSecond: positive('Rated seeds per second').max(1000, 'Rated seeds per second must be at most 1,000').nullish().transform((v) => v ?? null),
   crops: z.array(z.enum(cropsHandled)).default([]),
   movesToNewToolbar: z.boolean().default(true),
   active: z.boolean().default(true),
@@ -149,7 +151,7 @@ export const installSchema = z
     rowTo: z.number().int().min(1, 'Rows start at 1').nullish().transform((v) => v ?? null),
     quantity: z.number().int().min(1, 'Quantity must be at least 1').max(500).nullish().transform((v) => v ?? null),
     installDate: isoDate.nullish().transform((v) => v ?? null),
-    pricePaidUsd: nonNegative('Price paid').nullish().transform((v) => v ?? null),
+    pricePaidUsd: nonNegative('Price paid').max(1_000_000, 'Price paid must be at most $1,000,000').nullish().transform((v) => v ?? null),
     serialNumbers: z.array(z.string().trim().min(1).max(60)).max(200).default([]),
     workOrder: optionalText(40),
     status: z.enum(['installed', 'removed']).default('installed'),
