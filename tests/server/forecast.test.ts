@@ -234,6 +234,25 @@ describe('forecast: cached aggregates stay fresh', () => {
   });
 });
 
+describe('forecast: a change made by another instance', () => {
+  it('when an item changes without passing through this instance (plain SQL, as another instance would), then the figures show it within half a second', async () => {
+    await new Promise((r) => setTimeout(r, 2600));
+    const read = async () => (await manager.get('/api/forecast?groupBy=season&season=2028')).body.totals;
+    expect(await read()).toEqual({ pipelineUsd: 2250, weightedUsd: 1712.5, actualUsd: 0, itemCount: 2 });
+    expect((await read()).weightedUsd).toBe(1712.5); // cached, with its table stamp remembered for a moment
+    const raw = (stage: string) => t.sequelize.query('UPDATE roadmap_items SET stage = ?, updated_at = NOW() + INTERVAL 1 SECOND WHERE id = ?', { replacements: [stage, ids[5]] });
+    try {
+      await raw('quoted'); // item 5: 500 × 0.5 = 250 instead of 50 → 1912.5
+      await new Promise((r) => setTimeout(r, 400));
+      expect((await read()).weightedUsd).toBe(1912.5);
+    } finally {
+      await raw('idea');
+    }
+    await new Promise((r) => setTimeout(r, 400));
+    expect((await read()).weightedUsd).toBe(1712.5);
+  });
+});
+
 describe('forecast: drill-down and CSV', () => {
   it('when a manager drills into a category bar, then the items behind it come a page at a time, largest weighted first', async () => {
     const first = await manager.get(`/api/forecast/items?groupBy=category&key=${downforceCategory}&pageSize=2`);

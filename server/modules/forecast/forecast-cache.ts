@@ -8,11 +8,19 @@
 // unchanged: results are therefore cached only once the latest change is more than SETTLE_SECONDS
 // old by the database clock, and every entry expires after the TTL whatever happens (which also
 // bounds staleness for changes the stamp cannot see: account moves, renamed parts, raw SQL writes).
-import { QueryTypes, type Sequelize } from 'sequelize';
+//
+// Counting 30,000 rows for the stamp costs a few milliseconds of MariaDB per request, more than the
+// rest of a cached answer. So one stamp read serves every request of the next STAMP_REUSE_MS, and
+// any write through this instance's models to the tables the figures come from drops it at once
+// (after its transaction commits). A change made through another instance shows within that
+// quarter second.
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { Account, Component, Planter, RoadmapItem, User } from '../../db/models/index.js';
 
 const SETTLE_SECONDS = 2;
 let ttlMs = 30_000;
 const MAX_ENTRIES = 500;
+const STAMP_REUSE_MS = 250;
 
 interface Entry {
   stamp: string;
@@ -25,9 +33,51 @@ const entries = new Map<string, Entry>();
 export function configureForecastCache(options: { ttlMs: number }) {
   ttlMs = options.ttlMs;
   entries.clear();
+  recentStamp = null;
 }
 
-async function tableStamp(sequelize: Sequelize): Promise<{ stamp: string; settled: boolean }> {
+type Stamp = { stamp: string; settled: boolean };
+let recentStamp: { atMs: number; value: Promise<Stamp> } | null = null;
+
+/** Forgets the stamp read last, so that the next request reads the table again. */
+export function forgetForecastStamp() {
+  recentStamp = null;
+}
+
+function tableStamp(sequelize: Sequelize): Promise<Stamp> {
+  const nowMs = Date.now();
+  if (recentStamp && nowMs - recentStamp.atMs < STAMP_REUSE_MS) return recentStamp.value;
+  const value = readTableStamp(sequelize);
+  const entry = { atMs: nowMs, value };
+  recentStamp = entry;
+  value.catch(() => {
+    if (recentStamp === entry) recentStamp = null;
+  });
+  return value;
+}
+
+/**
+ * Drops the remembered stamp whenever this instance writes roadmap items or the records the figures
+ * are grouped by (accounts, planters, parts, users), once the write's transaction has committed.
+ * Called when the app is built (after the models are initialised, which resets their hooks).
+ */
+export function watchForecastSources() {
+  const changed = (...args: unknown[]) => {
+    forgetForecastStamp();
+    const options = args.find((a): a is { transaction?: Transaction | null } => typeof a === 'object' && a !== null && 'transaction' in a);
+    options?.transaction?.afterCommit(() => forgetForecastStamp());
+  };
+  const hooks = ['afterCreate', 'afterBulkCreate', 'afterUpdate', 'afterBulkUpdate', 'afterDestroy', 'afterBulkDestroy', 'afterUpsert', 'afterSave'] as const;
+  type Hooked = { addHook: (h: string, name: string, fn: (...a: unknown[]) => void) => void; removeHook: (h: string, name: string) => void };
+  for (const model of [RoadmapItem, Account, Planter, Component, User] as unknown as Hooked[]) {
+    for (const hook of hooks) {
+      model.removeHook(hook, 'forecastStamp');
+      model.addHook(hook, 'forecastStamp', changed);
+    }
+  }
+}
+
+async function readTableStamp(sequelize: Sequelize): Promise<Stamp> {
   const [row] = await sequelize.query<{ n: number; maxId: number | null; changedAt: string | null; settled: number | null }>(
     `SELECT (SELECT COUNT(*) FROM roadmap_items) AS n, (SELECT MAX(id) FROM roadmap_items) AS maxId,
         DATE_FORMAT(t.changed_at, '%Y-%m-%d %H:%i:%s') AS changedAt,

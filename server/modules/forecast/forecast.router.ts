@@ -22,6 +22,7 @@ import { parsed, validate } from '../../http/validate.js';
 import { forecast, forecastCsv, forecastItems } from './forecast.service.js';
 import { listQuotas, putQuota } from './quotas.service.js';
 import { putShopWeek, shopCapacity } from './shop-capacity.service.js';
+import { watchForecastSources } from './forecast-cache.js';
 
 /**
  * Forecast, quotas and shop capacity under /api. Growers are refused everywhere (403). Forecast and
@@ -29,6 +30,7 @@ import { putShopWeek, shopCapacity } from './shop-capacity.service.js';
  * week's technician hours: admin and managers.
  */
 export function forecastRouter(sequelize: Sequelize) {
+  watchForecastSources();
   const router = Router();
   const staff = requireRole('admin', 'manager', 'specialist');
   const managers = requireRole('admin', 'manager');
