@@ -1,6 +1,6 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import type { QueryInterface, Sequelize } from 'sequelize';
+import { QueryTypes, type QueryInterface, type Sequelize } from 'sequelize';
 import { SequelizeStorage, Umzug } from 'umzug';
 
 const here = path.dirname(fileURLToPath(import.meta.url));
@@ -24,6 +24,19 @@ export function migrator(sequelize: Sequelize, log = false) {
   });
 }
 
+/**
+ * Applies pending migrations. Instances that start together take turns: a named MariaDB lock, held
+ * on one pinned connection, lets one migrate while the others wait and then find nothing to do.
+ * (Named locks are per server: on a multi-primary cluster run `npm run db:migrate` once instead.)
+ */
 export async function migrateUp(sequelize: Sequelize, log = false) {
-  return migrator(sequelize, log).up();
+  return sequelize.transaction(async (transaction) => {
+    const [row] = await sequelize.query<{ got: number | null }>("SELECT GET_LOCK('rowpath_migrations', 120) AS got", { type: QueryTypes.SELECT, transaction });
+    if (Number(row?.got) !== 1) throw new Error('Another instance has been migrating the database for over two minutes; try again when it has finished.');
+    try {
+      return await migrator(sequelize, log).up();
+    } finally {
+      await sequelize.query("SELECT RELEASE_LOCK('rowpath_migrations')", { transaction });
+    }
+  });
 }
