@@ -1,4 +1,5 @@
 import { randomBytes, timingSafeEqual } from 'node:crypto';
+import type { IncomingMessage } from 'node:http';
 import bcrypt from 'bcryptjs';
 import type { Express, RequestHandler } from 'express';
 import session from 'express-session';
@@ -27,17 +28,10 @@ const DUMMY_HASH = bcrypt.hashSync(randomBytes(12).toString('hex'), 10);
 
 type SessionUserRow = { id: number; email: string; name: string; role: SessionUser['role']; disabled: number | boolean; accountId: number | null; territoryIds: string | null };
 
-/**
- * The signed-in user with their territories, read on every signed-in request: one plain query
- * (no model instances), so that a list page does not pay more for who is asking than for its rows.
- */
-export async function loadSessionUser(id: number): Promise<SessionUser | null> {
-  const [row] = await User.sequelize!.query<SessionUserRow>(
-    'SELECT u.id, u.email, u.name, u.role, u.disabled, u.account_id AS accountId, GROUP_CONCAT(ut.territory_id ORDER BY ut.territory_id) AS territoryIds ' +
-      'FROM users u LEFT JOIN user_territories ut ON ut.user_id = u.id WHERE u.id = ? GROUP BY u.id',
-    { replacements: [id], type: QueryTypes.SELECT },
-  );
-  if (!row || row.disabled) return null;
+const USER_COLUMNS = 'u.id, u.email, u.name, u.role, u.disabled, u.account_id AS accountId, GROUP_CONCAT(ut.territory_id ORDER BY ut.territory_id) AS territoryIds';
+
+function toSessionUser(row: SessionUserRow | undefined): SessionUser | null {
+  if (!row || row.id === null || row.disabled) return null;
   return {
     id: row.id,
     email: row.email,
@@ -46,6 +40,18 @@ export async function loadSessionUser(id: number): Promise<SessionUser | null> {
     territoryIds: row.territoryIds ? row.territoryIds.split(',').map(Number) : [],
     accountId: row.accountId,
   };
+}
+
+/**
+ * The signed-in user with their territories: one plain query (no model instances), so that a list
+ * page does not pay more for who is asking than for its rows.
+ */
+export async function loadSessionUser(id: number): Promise<SessionUser | null> {
+  const [row] = await User.sequelize!.query<SessionUserRow>(
+    `SELECT ${USER_COLUMNS} FROM users u LEFT JOIN user_territories ut ON ut.user_id = u.id WHERE u.id = ? GROUP BY u.id`,
+    { replacements: [id], type: QueryTypes.SELECT },
+  );
+  return toSessionUser(row);
 }
 
 export async function verifyPassword(email: string, password: string): Promise<User | null> {
@@ -61,18 +67,34 @@ export function newCsrfToken() {
 /** Sessions in MariaDB, Passport on top, idle and absolute lifetimes, and the CSRF check. */
 export function installSessions(app: Express, sequelize: Sequelize, config: Config, securityLog: SecurityLog) {
   const SequelizeStore = connectSessionSequelize(session.Store);
-  // Every signed-in request reads its session: a plain query by primary key instead of a model
-  // lookup. Writes, deletes and the expiry sweep stay with the package.
+  const idleMs = config.SESSION_IDLE_MINUTES * 60_000;
+  const maxMs = config.SESSION_MAX_HOURS * 3_600_000;
+  // Every signed-in request reads its session and then its user. Both come from one plain query
+  // by the session's primary key (the user id is kept in a column beside the data); the user is
+  // handed to Passport's deserializer below through `loadedUsers`, by session id. Writes, deletes
+  // and the expiry sweep stay with the package.
+  const loadedUsers = new Map<string, { user: SessionUser | null; atMs: number }>();
   class SessionStore extends SequelizeStore {
     override get(sid: string, fn: (err: unknown, data?: session.SessionData | null) => void) {
       sequelize
-        .query<{ data: string | null }>('SELECT data FROM sessions WHERE sid = ?', { replacements: [sid], type: QueryTypes.SELECT })
-        .then(([row]) => (row?.data ? (JSON.parse(row.data) as session.SessionData) : null))
+        .query<SessionUserRow & { data: string | null }>(
+          `SELECT s.data, ${USER_COLUMNS} FROM sessions s LEFT JOIN users u ON u.id = s.user_id LEFT JOIN user_territories ut ON ut.user_id = u.id WHERE s.sid = ? GROUP BY s.sid`,
+          { replacements: [sid], type: QueryTypes.SELECT },
+        )
+        .then(([row]) => {
+          if (!row?.data) return null;
+          const data = JSON.parse(row.data) as session.SessionData & { passport?: { user?: number } };
+          if (data.passport?.user !== undefined && row.id === data.passport.user) {
+            // A session that never reaches the deserializer (an expired one, say) leaves its entry:
+            // entries older than a few seconds are dropped as new ones arrive.
+            if (loadedUsers.size > 500) for (const [key, v] of loadedUsers) if (Date.now() - v.atMs > 5_000) loadedUsers.delete(key);
+            loadedUsers.set(sid, { user: toSessionUser(row), atMs: Date.now() });
+          }
+          return data;
+        })
         .then((data) => fn(null, data), fn);
     }
   }
-  const idleMs = config.SESSION_IDLE_MINUTES * 60_000;
-  const maxMs = config.SESSION_MAX_HOURS * 3_600_000;
   const store = new SessionStore({
     db: sequelize,
     table: 'Session',
@@ -123,8 +145,12 @@ export function installSessions(app: Express, sequelize: Sequelize, config: Conf
     }),
   );
   passport.serializeUser((user, done) => done(null, (user as { id: number }).id));
-  passport.deserializeUser((id: number, done) => {
+  passport.deserializeUser((req: IncomingMessage, id: number, done: (err: unknown, user?: SessionUser | false) => void) => {
     // A disabled or deleted user is simply not signed in any more.
+    const sid = (req as IncomingMessage & { sessionID: string }).sessionID;
+    const loaded = loadedUsers.get(sid);
+    loadedUsers.delete(sid);
+    if (loaded && (loaded.user === null || loaded.user.id === id)) return done(null, loaded.user ?? false);
     loadSessionUser(id).then((u) => done(null, u ?? false), done);
   });
   app.use(passport.session());

@@ -166,4 +166,26 @@ describe('fleet lists in plain SQL', () => {
     expect(total).toBeGreaterThan(0);
     expect(seen.size).toBe(total);
   });
+
+  it('when the list totals are cached and accounts are added through this instance or behind its back, then the next totals count them (at once, or within half a second)', async () => {
+    const admin = await signedIn(t.app, await makeUser('admin'));
+    const territory = await makeTerritory();
+    const path = `/api/accounts?q=${tag}-cached&territoryId=${territory.id}`;
+    const total = async () => (await admin.get(path)).body.total;
+    await new Promise((r) => setTimeout(r, 2600)); // past the settling time, so that totals are cached
+    expect(await total()).toBe(0);
+    expect(await total()).toBe(0);
+    const made = await admin.post('/api/accounts', { name: `Cached ${tag}-cached`, territoryId: territory.id });
+    expect(made.status).toBe(201);
+    expect(await total()).toBe(1); // a write through this instance's models drops the stamp on commit
+    await new Promise((r) => setTimeout(r, 2600));
+    expect(await total()).toBe(1);
+    // Another instance (plain SQL: no hooks here) adds one and removes the first.
+    await t.sequelize.query("INSERT INTO accounts (name, status, territory_id, state, acres_by_crop, version, created_at, updated_at) VALUES (?, 'active', ?, 'KS', '{}', 0, UTC_TIMESTAMP(), UTC_TIMESTAMP())", { replacements: [`Behind ${tag}-cached`, territory.id] });
+    await new Promise((r) => setTimeout(r, 400));
+    expect(await total()).toBe(2);
+    await t.sequelize.query('DELETE FROM accounts WHERE id = ?', { replacements: [made.body.account.id] });
+    await new Promise((r) => setTimeout(r, 400));
+    expect(await total()).toBe(1);
+  });
 });

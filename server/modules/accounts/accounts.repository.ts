@@ -4,6 +4,7 @@ import { accountScopeSql } from '../../auth/access.js';
 import type { AccountListQuery } from '../../../shared/schemas/accounts.js';
 import { Account, AuditEvent, Contact, FarmSite, Planter, Territory, Tractor, User } from '../../db/models/index.js';
 import { literal } from 'sequelize';
+import { countRows } from '../fleet/list-totals.js';
 import { plain } from '../fleet/plain.js';
 import { PLANTER_NUMBERS, TRACTOR_NUMBERS } from '../fleet/planters.service.js';
 
@@ -41,8 +42,8 @@ const sortColumns: Record<string, string[]> = { name: ['name', 'town'], town: ['
 type SummaryRow = { id: number; name: string; status: AccountSummary['status']; town: string | null; state: string | null; territoryId: number; territoryName: string | null; specialistId: number | null; specialistName: string | null; lat: string | number | null; lng: string | number | null };
 
 /**
- * One page of the accounts a user may see. The busiest read of the app, so plain SQL: a count,
- * and a page whose ids are found on the narrow (name, town) index before the rows and their
+ * One page of the accounts a user may see. The busiest read of the app, so plain SQL: a count
+ * (cached while the tables are unchanged, see list-totals.ts), and a page whose ids are found on the narrow (name, town) index before the rows and their
  * territory and specialist names are read ("deferred join"), so that a deep page or a search
  * does not sort whole rows.
  */
@@ -69,8 +70,8 @@ export async function listAccounts(user: SessionUser, query: AccountListQuery) {
   // Ties are broken by the next column and then the id, in the same direction, so that an index
   // read backwards serves a descending sort.
   const orderBy = [...(sortColumns[query.sort.replace(/^-/, '')] ?? sortColumns.name), 'id'].map((c) => `a.${c} ${dir}`).join(', ');
-  const [[{ total }], rows] = await Promise.all([
-    sequelize.query<{ total: number | bigint }>(`SELECT COUNT(*) AS total FROM accounts a WHERE ${where}`, { replacements, type: QueryTypes.SELECT }),
+  const [total, rows] = await Promise.all([
+    countRows(sequelize, `SELECT COUNT(*) AS total FROM accounts a WHERE ${where}`, replacements),
     sequelize.query<SummaryRow>(
       'SELECT a.id, a.name, a.status, a.town, a.state, a.territory_id AS territoryId, t.name AS territoryName, a.specialist_id AS specialistId, s.name AS specialistName, a.lat, a.lng ' +
         `FROM (SELECT a.id FROM accounts a WHERE ${where} ORDER BY ${orderBy} LIMIT ? OFFSET ?) page ` +
@@ -81,7 +82,7 @@ export async function listAccounts(user: SessionUser, query: AccountListQuery) {
   ]);
   return {
     items: rows.map((r) => ({ ...r, lat: r.lat === null ? null : Number(r.lat), lng: r.lng === null ? null : Number(r.lng) })),
-    total: Number(total),
+    total,
   };
 }
 

@@ -7,6 +7,7 @@ import { requireAuth } from '../../auth/guards.js';
 import { notFound } from '../../http/errors.js';
 import { parsed, validate } from '../../http/validate.js';
 import { accountFor } from '../fleet/fleet-access.js';
+import { watchListTotals } from '../fleet/list-totals.js';
 import { accountAudit, findAccountWithFleet, listAccounts } from './accounts.repository.js';
 import { createAccount, deleteAccount, updateAccount } from './accounts.service.js';
 
@@ -14,6 +15,7 @@ const accountUpdateSchema = accountSchema.partial().extend({ version: versionFie
 
 /** Grower accounts. Every signed-in role, limited to the accounts its scope allows; growers read only. */
 export function accountsRouter(sequelize: Sequelize) {
+  watchListTotals();
   const router = Router();
   router.use(requireAuth);
 

@@ -5,6 +5,7 @@ import { accountScopeSql } from '../../auth/access.js';
 import { Account, Component, FarmSite, Install, Planter, Toolbar, Tractor } from '../../db/models/index.js';
 import { notFound, validationError } from '../../http/errors.js';
 import { accountFor, assertVersion, audit, diff, mapLockError } from './fleet-access.js';
+import { countRows } from './list-totals.js';
 import { plain } from './plain.js';
 
 export const PLANTER_NUMBERS = ['rowSpacingIn', 'seedCapacityUnits', 'liquidTankGallons', 'dryCapacityLb'];
@@ -155,8 +156,8 @@ export async function listPlanters(user: SessionUser, query: PlanterListQuery) {
   const orderBy = `${planterSort[key] ?? 'p.name'} ${desc ? 'DESC' : 'ASC'}, p.id ASC`;
   // An admin's list needs the account only to search or sort by its name.
   const from = user.role !== 'admin' || query.q || key === 'account' ? 'planters p JOIN accounts a ON a.id = p.account_id' : 'planters p';
-  const [[{ total }], rows] = await Promise.all([
-    sequelize.query<{ total: number | bigint }>(`SELECT COUNT(*) AS total FROM ${from} WHERE ${where}`, { replacements, type: QueryTypes.SELECT }),
+  const [total, rows] = await Promise.all([
+    countRows(sequelize, `SELECT COUNT(*) AS total FROM ${from} WHERE ${where}`, replacements),
     sequelize.query<PlanterRow>(
       'SELECT p.id, p.name, p.maker, p.model_year AS modelYear, p.rows, p.row_spacing_in AS rowSpacingIn, p.frame_type AS frameType, a.id AS accountId, a.name AS accountName, ' +
         "(SELECT COUNT(*) FROM installs i WHERE i.planter_id = p.id AND i.status = 'installed') AS installCount " +
@@ -167,7 +168,7 @@ export async function listPlanters(user: SessionUser, query: PlanterListQuery) {
   ]);
   return {
     items: rows.map((r) => ({ ...r, rowSpacingIn: Number(r.rowSpacingIn), installCount: Number(r.installCount) })),
-    total: Number(total),
+    total,
   };
 }
 
