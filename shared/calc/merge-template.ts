@@ -204,7 +204,8 @@ export function renderTemplate(template: TemplateInput, values: MergeValues): Re
   }
   const text = `${parts.map((p) => p.text).join('\n\n')}\n`;
   const html =
-    '<!doctype html><html><head><meta charset="utf-8"><meta name="viewport" content="width=device-width"></head>' +
+    // A language and a title, so that a screen reader opening the message on its own reads it right.
+    '<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width"><title>A reminder from your dealership</title></head>' +
     '<body style="margin:0;padding:0;background:#f4f1ec">' +
     '<div style="max-width:600px;margin:0 auto;padding:24px;background:#ffffff;color:#22263a;font-family:Arial,Helvetica,sans-serif;font-size:16px">' +
     parts.map((p) => p.html).join('') +

@@ -98,3 +98,11 @@ describe('rendering a reminder', () => {
     expect(m.text).not.toMatch(/\{\{|\}\}|undefined/);
   });
 });
+
+describe('the HTML part as a page of its own', () => {
+  it('when a reminder is rendered, then its HTML names its language and has a title', () => {
+    const out = renderTemplate({ subject: 'Check-up', body: 'Hello {{grower.firstName}}.' }, sampleMergeValues(links));
+    expect(out.html).toContain('<html lang="en">');
+    expect(out.html).toContain('<title>A reminder from your dealership</title>');
+  });
+});

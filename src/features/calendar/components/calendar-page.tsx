@@ -9,7 +9,7 @@ import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { format, getDay, parse, startOfWeek } from 'date-fns';
 import { enUS } from 'date-fns/locale';
 import { lazy, Suspense, useMemo, useState, type SyntheticEvent } from 'react';
-import { Calendar, dateFnsLocalizer, type EventProps, type Formats } from 'react-big-calendar';
+import { Calendar, dateFnsLocalizer, type EventProps, type Formats, type HeaderProps } from 'react-big-calendar';
 import * as dragAndDropModule from 'react-big-calendar/lib/addons/dragAndDrop';
 import type { EventInteractionArgs } from 'react-big-calendar/lib/addons/dragAndDrop';
 import type { VisitView } from '@shared/schemas/visits';
@@ -272,7 +272,7 @@ export function CalendarPage() {
             eventPropGetter={(e) => ({
               className: cn('rp-event', `rp-event--${e.visit.purpose}`, `rp-event--${e.visit.status}`, pending.has(e.id) && 'rp-event--moving', !e.draggable && 'rp-event--locked'),
             })}
-            components={{ event: EventContent }}
+            components={view === 'month' ? { event: EventContent } : { event: EventContent, header: DayHeading }}
             onDrillDown={(d) => setParam({ date: wallDateIso(d), view: 'day' })}
           />
         </div>
@@ -340,6 +340,16 @@ function EventContent({ event }: EventProps<VisitEvent>) {
       </span>
     </span>
   );
+}
+
+/**
+ * A day's heading above the day, work-week and week columns. The library's own heading claims the
+ * "columnheader" role, but there it sits inside a drill-down button with no table or grid around
+ * it, which assistive technology cannot place; plain text inside the button says the same. (The
+ * month view keeps the library's heading: its header row is a real ARIA table row.)
+ */
+function DayHeading({ label }: HeaderProps) {
+  return <span>{label}</span>;
 }
 
 /** What the event marks mean: a letter per purpose, a border per status. */

@@ -88,8 +88,9 @@ function SeasonPairPanel({
                           onClick={() => onDrill({ filters: panelFilters(filters, groupBy, season), key: row.key, label: `${row.label}, ${season} season` })}
                           className="inline-flex min-h-11 w-full flex-col items-end justify-center rounded-lg px-2 hover:bg-ink-50 disabled:cursor-default disabled:hover:bg-transparent"
                         >
-                          <span className="font-semibold text-ink-900">{formatUsd(figures.weightedUsd)}</span>
-                          <span className="text-sm text-loam-700">of {formatUsd(figures.pipelineUsd)}</span>
+                          {/* The visible words, "$X expected of $Y", are in the spoken name as they stand, so a voice user can say what they see. */}
+                          <span className="font-semibold text-ink-900">{formatUsd(figures.weightedUsd)}</span>{' '}
+                          <span className="text-sm whitespace-nowrap text-loam-700">expected of {formatUsd(figures.pipelineUsd)}</span>
                         </button>
                       </td>
                     );

@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
+import { useEffect, useMemo, useRef, useState, type KeyboardEvent, type ReactNode } from 'react';
 import type { ComponentCategory } from '@shared/schemas/fleet';
 import type { Install, PlanterDetail, Toolbar } from '@/features/fleet/api/types';
 import { GlyphShape } from '@/features/fleet/components/component-glyph';
@@ -60,6 +60,20 @@ function fit(text: string, widthPx: number): string | null {
   if (text.length * CHAR_W <= widthPx) return text;
   const room = Math.floor(widthPx / CHAR_W) - 1;
   return room >= 4 ? `${text.slice(0, room)}…` : null;
+}
+
+/**
+ * Marks drawn over a button (part glyphs and their short words): outside the button's element, so
+ * the button's visible text is only what its spoken name says too (its row number, "Whole planter"),
+ * and not hit-testable, so a click on them still lands on the button beneath. The button's name
+ * lists the parts in full.
+ */
+function Overlay({ children }: { children: ReactNode }) {
+  return (
+    <g aria-hidden="true" pointerEvents="none">
+      {children}
+    </g>
+  );
 }
 
 /**
@@ -211,6 +225,14 @@ export function PlanterDrawing({ planter, selected, onSelect }: PlanterDrawingPr
               className={cn('opacity-0 group-focus-visible:opacity-100', isSelectedBar(t.id) && 'opacity-100')}
             />
             <rect x={bar.xPx} y={barY} width={bar.widthPx} height={BAR_H} rx={5} fill={isSelectedBar(t.id) ? INK_600 : INK_800} className="transition-colors group-hover:fill-[#363f68]" />
+            {bar.cutLeft && <path d={cutMark(bar.xPx, barY)} fill="none" stroke="#ffffff" strokeWidth={2} aria-hidden="true" />}
+            {bar.cutRight && <path d={cutMark(bar.xPx + bar.widthPx, barY)} fill="none" stroke="#ffffff" strokeWidth={2} aria-hidden="true" />}
+          </g>
+        ) : (
+          <rect x={bar.xPx} y={barY} width={bar.widthPx} height={BAR_H} rx={5} fill="none" stroke={LOAM_700} strokeDasharray="6 4" strokeWidth={2} />
+        )}
+        {t && (
+          <Overlay>
             {chips.map((chip) => (
               <g key={chip.key}>
                 <rect x={chip.x} y={barY + 4} width={chip.text ? 16 + 4 + chip.text.length * 6.4 + 8 : 20} height={BAR_H - 8} rx={4} fill="#ffffff" opacity={0.95} />
@@ -227,17 +249,13 @@ export function PlanterDrawing({ planter, selected, onSelect }: PlanterDrawingPr
                 +{hidden}
               </text>
             )}
-            {bar.cutLeft && <path d={cutMark(bar.xPx, barY)} fill="none" stroke="#ffffff" strokeWidth={2} aria-hidden="true" />}
-            {bar.cutRight && <path d={cutMark(bar.xPx + bar.widthPx, barY)} fill="none" stroke="#ffffff" strokeWidth={2} aria-hidden="true" />}
             {/* The bar's own "open" affordance at its right end. */}
             {!bar.cutRight && (
-              <text x={bar.xPx + bar.widthPx - 10} y={barY + BAR_H / 2 + 5} textAnchor="end" fontSize={14} fontWeight={700} fill="#ffffff" aria-hidden="true">
+              <text x={bar.xPx + bar.widthPx - 10} y={barY + BAR_H / 2 + 5} textAnchor="end" fontSize={14} fontWeight={700} fill="#ffffff">
                 ⋯
               </text>
             )}
-          </g>
-        ) : (
-          <rect x={bar.xPx} y={barY} width={bar.widthPx} height={BAR_H} rx={5} fill="none" stroke={LOAM_700} strokeDasharray="6 4" strokeWidth={2} />
+          </Overlay>
         )}
         {bar.rows.map(({ row, cxPx }) => {
           const list = rowInstalls.get(row) ?? [];
@@ -246,54 +264,57 @@ export function PlanterDrawing({ planter, selected, onSelect }: PlanterDrawingPr
           const x = cxPx - unitW / 2;
           const chosen = isSelectedRow(row);
           return (
-            <g
-              key={row}
-              ref={(el) => {
-                if (el) rowRefs.current.set(row, el);
-                else rowRefs.current.delete(row);
-              }}
-              role="button"
-              tabIndex={0}
-              aria-label={rowAccessibleName(row, list)}
-              aria-haspopup="dialog"
-              className="group cursor-pointer outline-none"
-              onClick={() => onSelect({ kind: 'row', row })}
-              onKeyDown={(e) => {
-                step(e, row);
-                activate(e, { kind: 'row', row });
-              }}
-              data-row={row}
-            >
-              <line x1={cxPx} y1={barY + BAR_H} x2={cxPx} y2={unitTop} stroke={LOAM_700} strokeWidth={3} />
-              <rect
-                x={x - 4}
-                y={unitTop - 4}
-                width={unitW + 8}
-                height={unitH + 8}
-                rx={7}
-                fill="none"
-                stroke={INK_600}
-                strokeWidth={3}
-                className={cn('opacity-0 group-focus-visible:opacity-100', chosen && 'opacity-100')}
-              />
-              <rect
-                x={x}
-                y={unitTop}
-                width={unitW}
-                height={unitH}
-                rx={5}
-                fill={chosen ? '#e5e7f0' : LOAM_100}
-                stroke={list.length ? LOAM_700 : LOAM_400}
-                strokeWidth={1.5}
-                strokeDasharray={list.length ? undefined : '3 3'}
-                className="transition-colors group-hover:fill-[#f3f4f8]"
-              />
-              <text x={cxPx} y={unitTop + 14} textAnchor="middle" fontSize={unitW < 22 ? 10 : 12} fontWeight={700} fill={INK_900}>
-                {row}
-              </text>
-              {glyphs.map((category, k) => (
-                <GlyphShape key={category} category={category} x={cxPx - glyph / 2} y={unitTop + NUMBER_H + k * (glyph + GLYPH_GAP)} size={glyph} />
-              ))}
+            <g key={row}>
+              <g
+                ref={(el) => {
+                  if (el) rowRefs.current.set(row, el);
+                  else rowRefs.current.delete(row);
+                }}
+                role="button"
+                tabIndex={0}
+                aria-label={rowAccessibleName(row, list)}
+                aria-haspopup="dialog"
+                className="group cursor-pointer outline-none"
+                onClick={() => onSelect({ kind: 'row', row })}
+                onKeyDown={(e) => {
+                  step(e, row);
+                  activate(e, { kind: 'row', row });
+                }}
+                data-row={row}
+              >
+                <line x1={cxPx} y1={barY + BAR_H} x2={cxPx} y2={unitTop} stroke={LOAM_700} strokeWidth={3} />
+                <rect
+                  x={x - 4}
+                  y={unitTop - 4}
+                  width={unitW + 8}
+                  height={unitH + 8}
+                  rx={7}
+                  fill="none"
+                  stroke={INK_600}
+                  strokeWidth={3}
+                  className={cn('opacity-0 group-focus-visible:opacity-100', chosen && 'opacity-100')}
+                />
+                <rect
+                  x={x}
+                  y={unitTop}
+                  width={unitW}
+                  height={unitH}
+                  rx={5}
+                  fill={chosen ? '#e5e7f0' : LOAM_100}
+                  stroke={list.length ? LOAM_700 : LOAM_400}
+                  strokeWidth={1.5}
+                  strokeDasharray={list.length ? undefined : '3 3'}
+                  className="transition-colors group-hover:fill-[#f3f4f8]"
+                />
+                <text x={cxPx} y={unitTop + 14} textAnchor="middle" fontSize={unitW < 22 ? 10 : 12} fontWeight={700} fill={INK_900}>
+                  {row}
+                </text>
+              </g>
+              <Overlay>
+                {glyphs.map((category, k) => (
+                  <GlyphShape key={category} category={category} x={cxPx - glyph / 2} y={unitTop + NUMBER_H + k * (glyph + GLYPH_GAP)} size={glyph} />
+                ))}
+              </Overlay>
             </g>
           );
         })}
@@ -336,6 +357,10 @@ export function PlanterDrawing({ planter, selected, onSelect }: PlanterDrawingPr
             <text x={14} y={22} fontSize={12} fontWeight={700} fill={INK_900}>
               {planterTitle}
             </text>
+          </g>
+        )}
+        {planterRoom >= 120 && (
+          <Overlay>
             {planterChips.map((chip) => (
               <g key={chip.key}>
                 <GlyphShape category={chip.category} x={chip.x} y={10} size={16} />
@@ -356,7 +381,7 @@ export function PlanterDrawing({ planter, selected, onSelect }: PlanterDrawingPr
                 none
               </text>
             )}
-          </g>
+          </Overlay>
         )}
         {layout.lanes.map((lane, i) => {
           const y = HITCH_H + i * (laneH + LANE_GAP);

@@ -53,7 +53,7 @@ export function ReplacementsPanel({ accountId, roadmap, canEdit, onChanged }: { 
                 {r.notes && <span className="block text-sm text-loam-700">{r.notes}</span>}
               </span>
               {canEdit && (
-                <Button variant="ghost" className="text-brick-700 hover:bg-brick-50" onClick={() => setRemoving(r)} aria-label={`Cancel ${describe(r)}`}>
+                <Button variant="ghost" className="text-brick-700 hover:bg-brick-50" onClick={() => setRemoving(r)} aria-label={`Cancel it: ${describe(r)}`}>
                   Cancel it
                 </Button>
               )}
