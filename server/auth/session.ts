@@ -115,7 +115,11 @@ export function installSessions(app: Express, sequelize: Sequelize, config: Conf
       store,
       resave: false,
       saveUninitialized: false,
-      rolling: true,
+      // The cookie is sent again whenever the session changes, which lastSeenAt (below) makes happen
+      // at least once a minute of activity, so its expiry stays within a minute of rolling; the idle
+      // limit itself is enforced here on the server. Not re-signing it on every answer saves an
+      // HMAC and a header per request.
+      rolling: false,
       cookie: { httpOnly: true, sameSite: 'lax', secure: config.COOKIE_SECURE, maxAge: idleMs },
     }),
   );

@@ -4,6 +4,7 @@
 import { Op, type Sequelize } from 'sequelize';
 import { PRE_SEASON_CHECKLIST } from '../../../shared/calc/merge-template.js';
 import type { BookingRequest } from '../../../shared/schemas/reminders.js';
+import { DEFAULT_DURATION_MIN } from '../../../shared/schemas/visits.js';
 import { Account, AuditEvent, Contact, ReminderCampaign, ReminderOutbox, User, Visit } from '../../db/models/index.js';
 import { AppError } from '../../http/errors.js';
 import { loadMergeContext } from './audience.js';
@@ -152,7 +153,8 @@ export async function bookCheckup(sequelize: Sequelize, secret: string, token: s
         purpose: 'pre-season-checkup',
         status: 'requested',
         startsAt: null,
-        durationMin: 60,
+        // As long as any other check-up (a request from the grower's Visits page, the week plan's due check-ups).
+        durationMin: DEFAULT_DURATION_MIN['pre-season-checkup'],
         windowStartMin: null,
         windowEndMin: null,
         notes,

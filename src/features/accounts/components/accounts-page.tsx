@@ -6,8 +6,8 @@ import {
   type SortingState,
   type Updater,
 } from '@tanstack/react-table';
-import { useEffect, useMemo, useState } from 'react';
-import { Link, useLocation, useNavigate, useSearchParams } from 'react-router-dom';
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { Link, useLocation, useNavigate, useNavigation, useSearchParams } from 'react-router-dom';
 import { Button, buttonClasses } from '@/components/ui/button';
 import { Dialog } from '@/components/ui/dialog';
 import { DataTable } from '@/components/ui/data-table';
@@ -111,6 +111,11 @@ export function AccountsPage() {
 
   // Search box: typed text is local; it reaches the URL (and the server) after a short pause.
   const [searchText, setSearchText] = useState(filters.q ?? '');
+  // While another page is on its way (an account opened before the pause ended), a late search
+  // would navigate back to this list and cancel it; this list's own reloads do not count.
+  const navigation = useNavigation();
+  const leaving = useRef(false);
+  leaving.current = navigation.location !== undefined && navigation.location.pathname !== location.pathname;
   useEffect(() => {
     // The URL changed from outside (Back, a link): show its search, unless it is what we typed.
     setSearchText((current) => (current.trim() === (filters.q ?? '') ? current : (filters.q ?? '')));
@@ -118,7 +123,9 @@ export function AccountsPage() {
   useEffect(() => {
     const next = searchText.trim();
     if (next === (filters.q ?? '')) return;
-    const timer = window.setTimeout(() => setFilters({ q: next || undefined, page: 1 }, { replace: true }), 350);
+    const timer = window.setTimeout(() => {
+      if (!leaving.current) setFilters({ q: next || undefined, page: 1 }, { replace: true });
+    }, 350);
     return () => window.clearTimeout(timer);
   }, [searchText]);
 
