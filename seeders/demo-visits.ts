@@ -54,6 +54,7 @@ export async function seedDemoVisits(sequelize: Sequelize, options: { now?: Date
     order: [['id', 'ASC']],
   });
   const accounts = await Account.findAll({ where: { status: 'active' }, order: [['id', 'ASC']] });
+  const growerAccountIds = new Set((await User.findAll({ where: { role: 'grower' }, attributes: ['accountId'] })).map((u) => u.accountId));
   const contacts = await Contact.findAll({ attributes: ['id', 'accountId'], order: [['id', 'ASC']] });
   const firstContact = new Map<number, number>();
   for (const c of contacts) if (!firstContact.has(c.accountId)) firstContact.set(c.accountId, c.id);
@@ -118,7 +119,10 @@ export async function seedDemoVisits(sequelize: Sequelize, options: { now?: Date
     });
 
     // Coming weeks: check-ups the growers asked for (some with a time window), and roadmap reviews.
-    mine.slice(0, 8).forEach((account, k) => {
+    // Farms whose growers sign in to Rowpath are left without one: the pre-season reminder's
+    // booking link is theirs to use (it only says "already requested" when a request is open).
+    const requesting = mine.filter((a) => !growerAccountIds.has(a.id));
+    requesting.slice(0, 8).forEach((account, k) => {
       const morning = k % 3 === 1;
       const afternoon = k % 3 === 2;
       rows.push(
@@ -135,7 +139,7 @@ export async function seedDemoVisits(sequelize: Sequelize, options: { now?: Date
         }),
       );
     });
-    mine.slice(8, 11).forEach((account) => {
+    requesting.slice(8, 11).forEach((account) => {
       rows.push(visit({ accountId: account.id, specialistId: specialist.id, purpose: 'roadmap-review', status: 'requested', checklist: REVIEW_LIST.map((label) => ({ label, done: false })) }));
     });
 
