@@ -293,6 +293,33 @@ describe('forecast: drill-down and CSV', () => {
     expect(none.body.items[0].probability).toBe(0.4);
   });
 
+  it('when a manager sorts the drill-down by each column and pages through it two at a time, then the pages join into one list in that order', async () => {
+    type Item = { id: number; weightedUsd: number; totalUsd: number; month: string; accountName: string; stage: string; labourHours: number };
+    const stageRank = (st: string) => ['idea', 'proposed', 'quoted', 'accepted', 'ordered', 'installed', 'declined'].indexOf(st);
+    const keyOf: Record<string, (i: Item) => number | string> = {
+      '-weightedUsd': (i) => -i.weightedUsd,
+      weightedUsd: (i) => i.weightedUsd,
+      '-totalUsd': (i) => -i.totalUsd,
+      totalUsd: (i) => i.totalUsd,
+      month: (i) => i.month,
+      '-month': (i) => i.month,
+      account: (i) => i.accountName.toLowerCase(),
+      stage: (i) => stageRank(i.stage),
+      '-labourHours': (i) => -i.labourHours,
+      labourHours: (i) => i.labourHours,
+    };
+    for (const [sort, key] of Object.entries(keyOf)) {
+      const all = (await manager.get(`/api/forecast/items?pageSize=200&sort=${sort}`)).body as { items: Item[]; total: number };
+      expect(all.items.length, sort).toBe(all.total);
+      const keys = all.items.map(key);
+      const descending = sort === '-month';
+      for (let k = 1; k < keys.length; k++) expect(descending ? keys[k - 1] >= keys[k] : keys[k - 1] <= keys[k], `${sort} at ${k}`).toBe(true);
+      const paged: number[] = [];
+      for (let page = 1; paged.length < all.total; page++) paged.push(...(await manager.get(`/api/forecast/items?pageSize=2&page=${page}&sort=${sort}`)).body.items.map((i: Item) => i.id));
+      expect(paged, sort).toEqual(all.items.map((i) => i.id));
+    }
+  });
+
   it('when a manager exports CSV, then the grouped rows and a total line arrive as a spreadsheet file', async () => {
     const res = await manager.get('/api/forecast/export.csv?groupBy=category');
     expect(res.status).toBe(200);

@@ -106,11 +106,15 @@ export async function forecast(sequelize: Sequelize, user: SessionUser, q: Forec
 export async function forecastItems(sequelize: Sequelize, user: SessionUser, q: ForecastItemsQuery) {
   const scope = itemScope(user, q);
   const key = q.key === undefined ? undefined : { groupBy: q.groupBy, key: q.key };
-  const { items, total } = await listItems(sequelize, scope, filtersOf(q), await stageProbabilities(), key, {
-    limit: q.pageSize,
-    offset: (q.page - 1) * q.pageSize,
-    sort: q.sort,
-  });
+  const { items, total } = await listItems(
+    sequelize,
+    scope,
+    filtersOf(q),
+    await stageProbabilities(),
+    key,
+    { limit: q.pageSize, offset: (q.page - 1) * q.pageSize, sort: q.sort },
+    (cacheKey, compute) => cachedAggregate(sequelize, `items-count\u0000${cacheKey}`, compute),
+  );
   return { items, total, page: q.page, pageSize: q.pageSize };
 }
 
