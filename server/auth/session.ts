@@ -10,6 +10,7 @@ import { QueryTypes, type Sequelize } from 'sequelize';
 import type { SessionUser } from '../../shared/schemas/auth.js';
 import type { Config } from '../config.js';
 import { User } from '../db/models/index.js';
+import { plainSelect } from '../db/plain-select.js';
 import { AppError } from '../http/errors.js';
 import type { SecurityLog } from './security-log.js';
 
@@ -28,7 +29,8 @@ const DUMMY_HASH = bcrypt.hashSync(randomBytes(12).toString('hex'), 10);
 
 type SessionUserRow = { id: number; email: string; name: string; role: SessionUser['role']; disabled: number | boolean; accountId: number | null; territoryIds: string | null };
 
-const USER_COLUMNS = 'u.id, u.email, u.name, u.role, u.disabled, u.account_id AS accountId, GROUP_CONCAT(ut.territory_id ORDER BY ut.territory_id) AS territoryIds';
+const USER_COLUMNS =
+  'u.id, u.email, u.name, u.role, u.disabled, u.account_id AS accountId, (SELECT GROUP_CONCAT(ut.territory_id ORDER BY ut.territory_id) FROM user_territories ut WHERE ut.user_id = u.id) AS territoryIds';
 
 function toSessionUser(row: SessionUserRow | undefined): SessionUser | null {
   if (!row || row.id === null || row.disabled) return null;
@@ -48,7 +50,7 @@ function toSessionUser(row: SessionUserRow | undefined): SessionUser | null {
  */
 export async function loadSessionUser(id: number): Promise<SessionUser | null> {
   const [row] = await User.sequelize!.query<SessionUserRow>(
-    `SELECT ${USER_COLUMNS} FROM users u LEFT JOIN user_territories ut ON ut.user_id = u.id WHERE u.id = ? GROUP BY u.id`,
+    `SELECT ${USER_COLUMNS} FROM users u WHERE u.id = ?`,
     { replacements: [id], type: QueryTypes.SELECT },
   );
   return toSessionUser(row);
@@ -76,11 +78,11 @@ export function installSessions(app: Express, sequelize: Sequelize, config: Conf
   const loadedUsers = new Map<string, { user: SessionUser | null; atMs: number }>();
   class SessionStore extends SequelizeStore {
     override get(sid: string, fn: (err: unknown, data?: session.SessionData | null) => void) {
-      sequelize
-        .query<SessionUserRow & { data: string | null }>(
-          `SELECT s.data, ${USER_COLUMNS} FROM sessions s LEFT JOIN users u ON u.id = s.user_id LEFT JOIN user_territories ut ON ut.user_id = u.id WHERE s.sid = ? GROUP BY s.sid`,
-          { replacements: [sid], type: QueryTypes.SELECT },
-        )
+      plainSelect<SessionUserRow & { data: string | null }>(
+        sequelize,
+        `SELECT s.data, ${USER_COLUMNS} FROM sessions s LEFT JOIN users u ON u.id = s.user_id WHERE s.sid = ?`,
+        [sid],
+      )
         .then(([row]) => {
           if (!row?.data) return null;
           const data = JSON.parse(row.data) as session.SessionData & { passport?: { user?: number } };

@@ -4,6 +4,7 @@ import { accountScopeSql } from '../../auth/access.js';
 import type { AccountListQuery } from '../../../shared/schemas/accounts.js';
 import { Account, AuditEvent, Contact, FarmSite, Planter, Territory, Tractor, User } from '../../db/models/index.js';
 import { literal } from 'sequelize';
+import { plainSelect } from '../../db/plain-select.js';
 import { countRows } from '../fleet/list-totals.js';
 import { plain } from '../fleet/plain.js';
 import { PLANTER_NUMBERS, TRACTOR_NUMBERS } from '../fleet/planters.service.js';
@@ -72,12 +73,13 @@ export async function listAccounts(user: SessionUser, query: AccountListQuery) {
   const orderBy = [...(sortColumns[query.sort.replace(/^-/, '')] ?? sortColumns.name), 'id'].map((c) => `a.${c} ${dir}`).join(', ');
   const [total, rows] = await Promise.all([
     countRows(sequelize, `SELECT COUNT(*) AS total FROM accounts a WHERE ${where}`, replacements),
-    sequelize.query<SummaryRow>(
+    plainSelect<SummaryRow>(
+      sequelize,
       'SELECT a.id, a.name, a.status, a.town, a.state, a.territory_id AS territoryId, t.name AS territoryName, a.specialist_id AS specialistId, s.name AS specialistName, a.lat, a.lng ' +
         `FROM (SELECT a.id FROM accounts a WHERE ${where} ORDER BY ${orderBy} LIMIT ? OFFSET ?) page ` +
         'JOIN accounts a ON a.id = page.id LEFT JOIN territories t ON t.id = a.territory_id LEFT JOIN users s ON s.id = a.specialist_id ' +
         `ORDER BY ${orderBy}`,
-      { replacements: [...replacements, query.pageSize, (query.page - 1) * query.pageSize], type: QueryTypes.SELECT },
+      [...replacements, query.pageSize, (query.page - 1) * query.pageSize],
     ),
   ]);
   return {

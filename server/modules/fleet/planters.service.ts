@@ -5,6 +5,7 @@ import { accountScopeSql } from '../../auth/access.js';
 import { Account, Component, FarmSite, Install, Planter, Toolbar, Tractor } from '../../db/models/index.js';
 import { notFound, validationError } from '../../http/errors.js';
 import { accountFor, assertVersion, audit, diff, mapLockError } from './fleet-access.js';
+import { plainSelect } from '../../db/plain-select.js';
 import { countRows } from './list-totals.js';
 import { plain } from './plain.js';
 
@@ -158,12 +159,13 @@ export async function listPlanters(user: SessionUser, query: PlanterListQuery) {
   const from = user.role !== 'admin' || query.q || key === 'account' ? 'planters p JOIN accounts a ON a.id = p.account_id' : 'planters p';
   const [total, rows] = await Promise.all([
     countRows(sequelize, `SELECT COUNT(*) AS total FROM ${from} WHERE ${where}`, replacements),
-    sequelize.query<PlanterRow>(
+    plainSelect<PlanterRow>(
+      sequelize,
       'SELECT p.id, p.name, p.maker, p.model_year AS modelYear, p.rows, p.row_spacing_in AS rowSpacingIn, p.frame_type AS frameType, a.id AS accountId, a.name AS accountName, ' +
         "(SELECT COUNT(*) FROM installs i WHERE i.planter_id = p.id AND i.status = 'installed') AS installCount " +
         `FROM (SELECT p.id FROM ${from} WHERE ${where} ORDER BY ${orderBy} LIMIT ? OFFSET ?) page ` +
         `JOIN planters p ON p.id = page.id JOIN accounts a ON a.id = p.account_id ORDER BY ${orderBy}`,
-      { replacements: [...replacements, query.pageSize, (query.page - 1) * query.pageSize], type: QueryTypes.SELECT },
+      [...replacements, query.pageSize, (query.page - 1) * query.pageSize],
     ),
   ]);
   return {
