@@ -15,6 +15,7 @@ import { seedDemoReminders } from '../../seeders/demo-reminders.js';
 import { templateProblems } from '../../shared/calc/merge-template.js';
 import { client, makeAccount, makeTerritory, makeUser, signedIn, testApp, uid, type TestApp } from '../helpers/app.js';
 import { makeComponent, planterBody } from '../helpers/fleet.js';
+import { storeReceivedMessage } from '../../server/mail/smtp-standin.js';
 
 type Client = Awaited<ReturnType<typeof signedIn>>;
 let t: TestApp;
@@ -402,6 +403,20 @@ describe('running a campaign, the outbox and sent mail', () => {
     const resumed = await specialist.patch(`/api/campaigns/${c.id}`, { status: 'active', version: paused.body.campaign.version });
     expect(resumed.body.campaign.outbox.held).toBe(0);
     expect(resumed.body.campaign.outbox.pending).toBeGreaterThan(0);
+  });
+
+  it('when the admin searches sent mail for text holding % or _, then those characters match only themselves', async () => {
+    const tag = `pct${Date.now()}`;
+    const message = (subject: string, n: number) =>
+      Buffer.from(`Message-ID: <${tag}.${n}@rowpath.test>\r\nFrom: a@rowpath.test\r\nTo: b@rowpath.test\r\nSubject: ${subject}\r\n\r\nBody\r\n`);
+    const envelope = { envelope: { mailFrom: { address: 'a@rowpath.test', args: false }, rcptTo: [{ address: 'b@rowpath.test', args: false }] } } as never;
+    await storeReceivedMessage(t.sequelize, message(`${tag} germination 100% tested`, 1), envelope);
+    await storeReceivedMessage(t.sequelize, message(`${tag} germination 1000 seeds`, 2), envelope);
+    await storeReceivedMessage(t.sequelize, message(`${tag} row_unit check`, 3), envelope);
+    await storeReceivedMessage(t.sequelize, message(`${tag} rowXunit check`, 4), envelope);
+    const subjects = async (q: string) => (await admin.get(`/api/sent-mail?q=${encodeURIComponent(`${tag} ${q}`)}`)).body.items.map((m: { subject: string }) => m.subject);
+    expect(await subjects('germination 100%')).toEqual([`${tag} germination 100% tested`]);
+    expect(await subjects('row_unit')).toEqual([`${tag} row_unit check`]);
   });
 
   it('when anyone but an admin asks for sent mail, then 403; a missing message is 404', async () => {

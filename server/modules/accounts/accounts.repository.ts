@@ -8,6 +8,7 @@ import { plainSelect } from '../../db/plain-select.js';
 import { countRows } from '../fleet/list-totals.js';
 import { plain } from '../fleet/plain.js';
 import { PLANTER_NUMBERS, TRACTOR_NUMBERS } from '../fleet/planters.service.js';
+import { likeContains } from '../../db/like.js';
 
 const include = [
   { model: Territory, as: 'territory', attributes: ['id', 'name'] },
@@ -54,7 +55,7 @@ export async function listAccounts(user: SessionUser, query: AccountListQuery) {
   const conditions = [scope.sql];
   const replacements: unknown[] = [...scope.replacements];
   if (query.q) {
-    const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    const like = likeContains(query.q);
     conditions.push('(a.name LIKE ? OR a.town LIKE ?)');
     replacements.push(like, like);
   }

@@ -14,6 +14,7 @@ import {
 } from '../../../shared/schemas/csv.js';
 import { accountScope } from '../../auth/access.js';
 import { Account, Contact, Territory, User } from '../../db/models/index.js';
+import { likeContains } from '../../db/like.js';
 
 type Loaded = Account & { territory?: Territory | null; specialist?: User | null };
 
@@ -23,7 +24,7 @@ const sortColumns: Record<string, string> = { name: 'name', town: 'town', status
 async function accountsFor(user: SessionUser, query: AccountExportQuery & { accountId?: number }) {
   const where: WhereOptions[] = [accountScope(user)];
   if (query.q) {
-    const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    const like = likeContains(query.q);
     where.push({ [Op.or]: [{ name: { [Op.like]: like } }, { town: { [Op.like]: like } }] });
   }
   if (query.territoryId) where.push({ territoryId: query.territoryId });

@@ -9,6 +9,7 @@ import { parsed, validate } from '../../http/validate.js';
 import { assertVersion, audit, mapLockError } from './fleet-access.js';
 import { plain } from './plain.js';
 import { COMPONENT_NUMBERS } from './planters.service.js';
+import { likeContains } from '../../db/like.js';
 
 const updateSchema = componentSchema.partial().extend({ version: versionField });
 
@@ -21,7 +22,7 @@ export function componentsRouter(sequelize: Sequelize) {
     if (q.category) where.push({ category: q.category });
     if (q.active) where.push({ active: q.active === 'true' });
     if (q.q) {
-      const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+      const like = likeContains(q.q);
       where.push({ [Op.or]: [{ name: { [Op.like]: like } }, { partNumber: { [Op.like]: like } }, { maker: { [Op.like]: like } }] });
     }
     const desc = q.sort.startsWith('-');

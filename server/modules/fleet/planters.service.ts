@@ -8,6 +8,7 @@ import { accountFor, assertVersion, audit, diff, mapLockError } from './fleet-ac
 import { plainSelect } from '../../db/plain-select.js';
 import { countRows } from './list-totals.js';
 import { plain } from './plain.js';
+import { likeContains } from '../../db/like.js';
 
 export const PLANTER_NUMBERS = ['rowSpacingIn', 'seedCapacityUnits', 'liquidTankGallons', 'dryCapacityLb'];
 export const TOOLBAR_NUMBERS = ['sizeFt'];
@@ -146,7 +147,7 @@ export async function listPlanters(user: SessionUser, query: PlanterListQuery) {
     replacements.push(query.minRows);
   }
   if (query.q) {
-    const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    const like = likeContains(query.q);
     conditions.push('(p.name LIKE ? OR p.maker LIKE ? OR a.name LIKE ?)');
     replacements.push(like, like, like);
   }

@@ -5,6 +5,7 @@ import type { SessionUser } from '../../../shared/schemas/auth.js';
 import { outboxStatuses, type OutboxQuery, type OutboxStatus, type SentMailQuery } from '../../../shared/schemas/reminders.js';
 import { Contact, ReceivedMail, ReminderOutbox } from '../../db/models/index.js';
 import { AppError, notFound } from '../../http/errors.js';
+import { likeContains } from '../../db/like.js';
 
 function scope(user: SessionUser): { sql: string; territories: number[] } {
   if (user.role === 'admin') return { sql: '', territories: [] };
@@ -106,7 +107,7 @@ export async function retryOutboxMessage(sequelize: Sequelize, user: SessionUser
 
 // ---------- the local SMTP stand-in's mailbox ----------
 export async function listSentMail(q: SentMailQuery) {
-  const where = q.q ? { [Op.or]: [{ subject: { [Op.like]: `%${q.q}%` } }, { toHeader: { [Op.like]: `%${q.q}%` } }] } : {};
+  const where = q.q ? { [Op.or]: [{ subject: { [Op.like]: likeContains(q.q) } }, { toHeader: { [Op.like]: likeContains(q.q) } }] } : {};
   const { rows, count } = await ReceivedMail.findAndCountAll({
     where,
     attributes: ['id', 'messageId', 'envelopeFrom', 'envelopeTo', 'fromHeader', 'toHeader', 'subject', 'sizeBytes', 'repeatCount', 'receivedAt'],
