@@ -8,14 +8,13 @@ import type { Sequelize } from 'sequelize';
 import { Account, AuditEvent, Contact, ReceivedMail, ReminderCampaign, ReminderOutbox, RoadmapItem, SeasonWindow, Visit } from '../../server/db/models/index.js';
 import { createSequelize } from '../../server/db/sequelize.js';
 import { drainOutbox } from '../../server/jobs/sender.js';
-import { startSmtpStandIn, type SmtpStandIn } from '../../server/mail/smtp-standin.js';
+import { startSmtpStandIn, storeReceivedMessage, type SmtpStandIn } from '../../server/mail/smtp-standin.js';
 import { createMailTransport } from '../../server/mail/transport.js';
 import { signReminderToken } from '../../server/modules/reminders/tokens.js';
 import { seedDemoReminders } from '../../seeders/demo-reminders.js';
 import { templateProblems } from '../../shared/calc/merge-template.js';
 import { client, makeAccount, makeTerritory, makeUser, signedIn, testApp, uid, type TestApp } from '../helpers/app.js';
 import { makeComponent, planterBody } from '../helpers/fleet.js';
-import { storeReceivedMessage } from '../../server/mail/smtp-standin.js';
 
 type Client = Awaited<ReturnType<typeof signedIn>>;
 let t: TestApp;
