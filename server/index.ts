@@ -37,7 +37,13 @@ async function main() {
     await db.close();
     throw err;
   }
-  const app = createApp({ sequelize: db.sequelize, config, clientDir });
+  let app: ReturnType<typeof createApp>;
+  try {
+    app = createApp({ sequelize: db.sequelize, config, clientDir });
+  } catch (err) {
+    await db.close(); // the database this process started must not outlive it
+    throw err;
+  }
   server = app.listen(config.PORT, config.HOST, () => {
     const address = server!.address();
     const port = typeof address === 'object' && address ? address.port : config.PORT;
