@@ -65,7 +65,11 @@ export function createApp({ sequelize, config, clientDir, log = defaultLog }: Ap
   // The built client's files need no session: served before the session is read, so that a page
   // load's scripts, fonts and map tiles cost no database round trips.
   const hasClient = Boolean(clientDir && fs.existsSync(path.join(clientDir, 'index.html')));
-  if (hasClient) app.use(express.static(clientDir!, { index: false, maxAge: '1h', setHeaders: immutableAssets }));
+  if (hasClient) {
+    const files = express.static(clientDir!, { index: false, maxAge: '1h', setHeaders: immutableAssets });
+    // API paths never name a file: no disk lookup for them.
+    app.use((req, res, next) => (req.path.startsWith('/api/') ? next() : files(req, res, next)));
+  }
 
   app.use('/api/health', healthRouter(sequelize));
   app.use('/api', express.json({ limit: '1mb' }));
