@@ -6,9 +6,10 @@ import {
   type SortingState,
   type Updater,
 } from '@tanstack/react-table';
-import { useEffect, useMemo, useRef, useState } from 'react';
-import { Link, useLocation, useNavigate, useNavigation, useSearchParams } from 'react-router-dom';
+import { useMemo, useState } from 'react';
+import { Link, useLocation, useNavigate, useSearchParams } from 'react-router-dom';
 import { Button, buttonClasses } from '@/components/ui/button';
+import { useUrlSearch } from '@/lib/use-url-search';
 import { Dialog } from '@/components/ui/dialog';
 import { DataTable } from '@/components/ui/data-table';
 import { inputClasses } from '@/components/ui/form-field';
@@ -110,24 +111,7 @@ export function AccountsPage() {
   const territories = useQuery({ ...territoriesQueryOptions(), enabled: canFilterByTerritory });
 
   // Search box: typed text is local; it reaches the URL (and the server) after a short pause.
-  const [searchText, setSearchText] = useState(filters.q ?? '');
-  // While another page is on its way (an account opened before the pause ended), a late search
-  // would navigate back to this list and cancel it; this list's own reloads do not count.
-  const navigation = useNavigation();
-  const leaving = useRef(false);
-  leaving.current = navigation.location !== undefined && navigation.location.pathname !== location.pathname;
-  useEffect(() => {
-    // The URL changed from outside (Back, a link): show its search, unless it is what we typed.
-    setSearchText((current) => (current.trim() === (filters.q ?? '') ? current : (filters.q ?? '')));
-  }, [filters.q]);
-  useEffect(() => {
-    const next = searchText.trim();
-    if (next === (filters.q ?? '')) return;
-    const timer = window.setTimeout(() => {
-      if (!leaving.current) setFilters({ q: next || undefined, page: 1 }, { replace: true });
-    }, 350);
-    return () => window.clearTimeout(timer);
-  }, [searchText]);
+  const [searchText, setSearchText] = useUrlSearch(filters.q, (q) => setFilters({ q, page: 1 }, { replace: true }));
 
   const sorting = useMemo(() => toSorting(filters.sort), [filters.sort]);
   const table = useReactTable({

@@ -1,9 +1,10 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState, type Updater } from '@tanstack/react-table';
-import { createContext, use, useEffect, useMemo, useState } from 'react';
+import { createContext, use, useMemo, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { componentCategories, type ComponentCategory } from '@shared/schemas/fleet';
 import { Button } from '@/components/ui/button';
+import { useUrlSearch } from '@/lib/use-url-search';
 import { DataTable } from '@/components/ui/data-table';
 import { Dialog } from '@/components/ui/dialog';
 import { inputClasses } from '@/components/ui/form-field';
@@ -121,16 +122,7 @@ export function CatalogPage() {
   const [deleting, setDeleting] = useState<CatalogComponent | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
 
-  const [searchText, setSearchText] = useState(filters.q ?? '');
-  useEffect(() => {
-    setSearchText((current) => (current.trim() === (filters.q ?? '') ? current : (filters.q ?? '')));
-  }, [filters.q]);
-  useEffect(() => {
-    const next = searchText.trim();
-    if (next === (filters.q ?? '')) return;
-    const timer = window.setTimeout(() => setFilters({ q: next || undefined, page: 1 }, { replace: true }), 350);
-    return () => window.clearTimeout(timer);
-  }, [searchText]);
+  const [searchText, setSearchText] = useUrlSearch(filters.q, (q) => setFilters({ q, page: 1 }, { replace: true }));
 
   const sorting = useMemo(() => toSorting(filters.sort), [filters.sort]);
   const table = useReactTable({

@@ -1,9 +1,10 @@
 import { useQuery } from '@tanstack/react-query';
 import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState, type Updater } from '@tanstack/react-table';
-import { useEffect, useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import { Link, useLocation, useSearchParams } from 'react-router-dom';
 import { workingWidthFt } from '@shared/calc/sizing';
 import { Button } from '@/components/ui/button';
+import { useUrlSearch } from '@/lib/use-url-search';
 import { DataTable } from '@/components/ui/data-table';
 import { inputClasses } from '@/components/ui/form-field';
 import { PageHeader } from '@/components/ui/page-header';
@@ -70,16 +71,7 @@ export function PlantersPage() {
     setSearchParams((current) => toPlanterListParams({ ...parsePlanterListParams(current), ...patch }), { replace: options.replace ?? false });
   const planters = useQuery(planterListQueryOptions(filters));
 
-  const [searchText, setSearchText] = useState(filters.q ?? '');
-  useEffect(() => {
-    setSearchText((current) => (current.trim() === (filters.q ?? '') ? current : (filters.q ?? '')));
-  }, [filters.q]);
-  useEffect(() => {
-    const next = searchText.trim();
-    if (next === (filters.q ?? '')) return;
-    const timer = window.setTimeout(() => setFilters({ q: next || undefined, page: 1 }, { replace: true }), 350);
-    return () => window.clearTimeout(timer);
-  }, [searchText]);
+  const [searchText, setSearchText] = useUrlSearch(filters.q, (q) => setFilters({ q, page: 1 }, { replace: true }));
 
   const sorting = useMemo(() => toSorting(filters.sort), [filters.sort]);
   const table = useReactTable({

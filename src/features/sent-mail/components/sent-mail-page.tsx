@@ -1,8 +1,9 @@
 import { useQuery } from '@tanstack/react-query';
 import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
-import { useEffect, useMemo, useState } from 'react';
+import { useMemo } from 'react';
 import { Link, useLocation, useSearchParams } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
+import { useUrlSearch } from '@/lib/use-url-search';
 import { DataTable } from '@/components/ui/data-table';
 import { inputClasses } from '@/components/ui/form-field';
 import { PageHeader } from '@/components/ui/page-header';
@@ -93,16 +94,7 @@ export function SentMailPage() {
   const setFilters = (patch: Partial<SentMailFilters>) => setParams((current) => toSentMailParams({ ...parseSentMailParams(current), ...patch }), { replace: true });
   // New mail arrives while the page is open (the sender works in the background).
   const mail = useQuery({ ...sentMailListQueryOptions(filters), refetchInterval: 5000 });
-  const [search, setSearch] = useState(filters.q ?? '');
-  useEffect(() => {
-    setSearch((current) => (current.trim() === (filters.q ?? '') ? current : (filters.q ?? '')));
-  }, [filters.q]);
-  useEffect(() => {
-    const next = search.trim();
-    if (next === (filters.q ?? '')) return;
-    const timer = window.setTimeout(() => setFilters({ q: next || undefined, page: 1 }), 350);
-    return () => window.clearTimeout(timer);
-  }, [search]);
+  const [search, setSearch] = useUrlSearch(filters.q, (q) => setFilters({ q, page: 1 }));
 
   const table = useReactTable({ data: mail.data?.items ?? [], columns, getRowId: (r) => String(r.id), getCoreRowModel: getCoreRowModel(), manualPagination: true, manualSorting: true });
   const total = mail.data?.total ?? 0;
