@@ -1,14 +1,9 @@
 import { useQuery } from '@tanstack/react-query';
-import {
-  createColumnHelper,
-  getCoreRowModel,
-  useReactTable,
-  type SortingState,
-  type Updater,
-} from '@tanstack/react-table';
+import { createColumnHelper } from '@tanstack/react-table';
 import { useMemo, useState } from 'react';
 import { Link, useLocation, useNavigate, useSearchParams } from 'react-router-dom';
 import { Button, buttonClasses } from '@/components/ui/button';
+import { useServerTable } from '@/lib/use-server-table';
 import { useUrlSearch } from '@/lib/use-url-search';
 import { Dialog } from '@/components/ui/dialog';
 import { DataTable } from '@/components/ui/data-table';
@@ -70,16 +65,6 @@ function AccountLink({ account }: { account: AccountSummary }) {
   );
 }
 
-function toSorting(sort: AccountSort): SortingState {
-  return [{ id: sort.replace(/^-/, ''), desc: sort.startsWith('-') }];
-}
-
-function fromSorting(sorting: SortingState): AccountSort {
-  const first = sorting[0];
-  if (!first) return 'name';
-  return `${first.desc ? '-' : ''}${first.id}` as AccountSort;
-}
-
 const descriptions = {
   admin: 'Every account at the dealership.',
   manager: 'Accounts in the territories you manage.',
@@ -113,24 +98,14 @@ export function AccountsPage() {
   // Search box: typed text is local; it reaches the URL (and the server) after a short pause.
   const [searchText, setSearchText] = useUrlSearch(filters.q, (q) => setFilters({ q, page: 1 }, { replace: true }));
 
-  const sorting = useMemo(() => toSorting(filters.sort), [filters.sort]);
-  const table = useReactTable({
-    data: accounts.data?.items ?? [],
+  const table = useServerTable({
+    rows: accounts.data?.items,
+    total: accounts.data?.total,
     columns,
-    getRowId: (row) => String(row.id),
-    getCoreRowModel: getCoreRowModel(),
-    manualPagination: true,
-    manualSorting: true,
-    manualFiltering: true,
-    enableMultiSort: false,
-    enableSortingRemoval: false,
-    sortDescFirst: false,
-    rowCount: accounts.data?.total ?? 0,
-    state: { sorting, pagination: { pageIndex: filters.page - 1, pageSize: filters.pageSize } },
-    onSortingChange: (updater: Updater<SortingState>) => {
-      const next = typeof updater === 'function' ? updater(sorting) : updater;
-      setFilters({ sort: fromSorting(next), page: 1 });
-    },
+    sort: filters.sort,
+    page: filters.page,
+    pageSize: filters.pageSize,
+    onSort: (sort) => setFilters({ sort, page: 1 }),
   });
 
   const total = accounts.data?.total ?? 0;

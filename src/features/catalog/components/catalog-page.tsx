@@ -1,9 +1,10 @@
 import { useQuery, useQueryClient } from '@tanstack/react-query';
-import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState, type Updater } from '@tanstack/react-table';
+import { createColumnHelper } from '@tanstack/react-table';
 import { createContext, use, useMemo, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { componentCategories, type ComponentCategory } from '@shared/schemas/fleet';
 import { Button } from '@/components/ui/button';
+import { useServerTable } from '@/lib/use-server-table';
 import { useUrlSearch } from '@/lib/use-url-search';
 import { DataTable } from '@/components/ui/data-table';
 import { Dialog } from '@/components/ui/dialog';
@@ -101,9 +102,6 @@ function ActionsCell({ component }: { component: CatalogComponent }) {
   );
 }
 
-const toSorting = (sort: CatalogSort): SortingState => [{ id: sort.replace(/^-/, ''), desc: sort.startsWith('-') }];
-const fromSorting = (sorting: SortingState): CatalogSort => (sorting[0] ? (`${sorting[0].desc ? '-' : ''}${sorting[0].id}` as CatalogSort) : 'category');
-
 type Editing = { mode: 'create' } | { mode: 'update'; component: CatalogComponent } | null;
 
 /** The component catalog: staff read it; admins and managers add, change and delete parts. */
@@ -124,21 +122,14 @@ export function CatalogPage() {
 
   const [searchText, setSearchText] = useUrlSearch(filters.q, (q) => setFilters({ q, page: 1 }, { replace: true }));
 
-  const sorting = useMemo(() => toSorting(filters.sort), [filters.sort]);
-  const table = useReactTable({
-    data: catalog.data?.items ?? [],
+  const table = useServerTable({
+    rows: catalog.data?.items,
+    total: catalog.data?.total,
     columns,
-    getRowId: (row) => String(row.id),
-    getCoreRowModel: getCoreRowModel(),
-    manualPagination: true,
-    manualSorting: true,
-    manualFiltering: true,
-    enableMultiSort: false,
-    enableSortingRemoval: false,
-    sortDescFirst: false,
-    rowCount: catalog.data?.total ?? 0,
-    state: { sorting, pagination: { pageIndex: filters.page - 1, pageSize: filters.pageSize } },
-    onSortingChange: (updater: Updater<SortingState>) => setFilters({ sort: fromSorting(typeof updater === 'function' ? updater(sorting) : updater), page: 1 }),
+    sort: filters.sort,
+    page: filters.page,
+    pageSize: filters.pageSize,
+    onSort: (sort) => setFilters({ sort, page: 1 }),
   });
   const context = useMemo<CatalogTableContext>(() => ({ canEdit, onEdit: (c) => setEditing({ mode: 'update', component: c }) }), [canEdit]);
   const total = catalog.data?.total ?? 0;

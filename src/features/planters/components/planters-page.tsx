@@ -1,9 +1,10 @@
 import { useQuery } from '@tanstack/react-query';
-import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState, type Updater } from '@tanstack/react-table';
+import { createColumnHelper } from '@tanstack/react-table';
 import { useMemo } from 'react';
 import { Link, useLocation, useSearchParams } from 'react-router-dom';
 import { workingWidthFt } from '@shared/calc/sizing';
 import { Button } from '@/components/ui/button';
+import { useServerTable } from '@/lib/use-server-table';
 import { useUrlSearch } from '@/lib/use-url-search';
 import { DataTable } from '@/components/ui/data-table';
 import { inputClasses } from '@/components/ui/form-field';
@@ -60,9 +61,6 @@ function AccountLink({ id, name }: { id: number; name: string }) {
   );
 }
 
-const toSorting = (sort: PlanterSort): SortingState => [{ id: sort.replace(/^-/, ''), desc: sort.startsWith('-') }];
-const fromSorting = (sorting: SortingState): PlanterSort => (sorting[0] ? (`${sorting[0].desc ? '-' : ''}${sorting[0].id}` as PlanterSort) : 'account');
-
 /** Every planter the user may see, across accounts: paged, sorted and searched on the server. */
 export function PlantersPage() {
   const [searchParams, setSearchParams] = useSearchParams();
@@ -73,21 +71,14 @@ export function PlantersPage() {
 
   const [searchText, setSearchText] = useUrlSearch(filters.q, (q) => setFilters({ q, page: 1 }, { replace: true }));
 
-  const sorting = useMemo(() => toSorting(filters.sort), [filters.sort]);
-  const table = useReactTable({
-    data: planters.data?.items ?? [],
+  const table = useServerTable({
+    rows: planters.data?.items,
+    total: planters.data?.total,
     columns,
-    getRowId: (row) => String(row.id),
-    getCoreRowModel: getCoreRowModel(),
-    manualPagination: true,
-    manualSorting: true,
-    manualFiltering: true,
-    enableMultiSort: false,
-    enableSortingRemoval: false,
-    sortDescFirst: false,
-    rowCount: planters.data?.total ?? 0,
-    state: { sorting, pagination: { pageIndex: filters.page - 1, pageSize: filters.pageSize } },
-    onSortingChange: (updater: Updater<SortingState>) => setFilters({ sort: fromSorting(typeof updater === 'function' ? updater(sorting) : updater), page: 1 }),
+    sort: filters.sort,
+    page: filters.page,
+    pageSize: filters.pageSize,
+    onSort: (sort) => setFilters({ sort, page: 1 }),
   });
   const total = planters.data?.total ?? 0;
   const filtered = Boolean(filters.q || filters.minRows);
