@@ -2,6 +2,7 @@ import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { BaseError, ConnectionError, DatabaseError, ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError } from 'sequelize';
 import { ZodError } from 'zod';
 import type { SecurityLog } from '../auth/security-log.js';
+import { isRetryableLockError } from '../db/retry.js';
 
 export type ErrorDetails = { fields?: Record<string, string>; [key: string]: unknown };
 
@@ -110,6 +111,11 @@ export function errorHandler(log: (msg: string, err?: unknown) => void, security
       body = inUse
         ? { code: 'in_use', message: 'Other records still use this one, so it cannot be removed.' }
         : { code: 'validation', message: 'Some fields need attention.', details: { fields: Object.fromEntries((Array.isArray(err.fields) ? err.fields : ['_']).map((f) => [camel(String(f)), 'That record does not exist.'])) } };
+    } else if (isRetryableLockError(err)) {
+      // A deadlock victim or a lock wait that timed out: the transaction was rolled back whole.
+      status = 503;
+      res.setHeader('Retry-After', '1');
+      body = { code: 'busy', message: 'Someone else was saving the same records at that moment, so nothing was saved. Try again.' };
     } else if (isDatabaseDown(err)) {
       status = 503;
       res.setHeader('Retry-After', '5');

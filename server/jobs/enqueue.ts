@@ -1,12 +1,14 @@
 // Enqueue: for each campaign, the reminder due today goes into the outbox once per contact.
 // The outbox's unique key (contact, campaign, offset) and INSERT IGNORE make this safe to run
 // from any number of app instances, any number of times: a message already there is left alone.
+// Two instances inserting the same keys at once can deadlock in InnoDB; the loser runs again.
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { dueReminder, isoDateUtc, windowStartIso } from '../../shared/calc/season-calendar.js';
 import type { CampaignStatus } from '../../shared/schemas/reminders.js';
 import { ReminderCampaign, ReminderCampaignTerritory } from '../db/models/index.js';
 import { audienceContacts, composeMessage, loadMergeContext, type CampaignForAudience, type LinkSettings } from '../modules/reminders/audience.js';
 import { resolveWindow } from '../modules/reminders/calendar.service.js';
+import { retryOnDeadlock } from '../db/retry.js';
 
 export interface EnqueueResult {
   campaignId: number;
@@ -59,7 +61,8 @@ export async function enqueueCampaign(sequelize: Sequelize, campaign: ReminderCa
   const forAudience = await campaignForAudience(campaign);
   const { rows } = await audienceContacts(sequelize, forAudience, { offsetDays: due.offsetDays });
   result.audience = rows.length;
-  const fresh = rows.filter((r) => !r.queued);
+  // In contact order, so instances enqueueing at once take the key locks in the same order.
+  const fresh = rows.filter((r) => !r.queued).sort((a, b) => a.contactId - b.contactId);
   result.alreadyQueued = rows.length - fresh.length;
   if (!fresh.length) return { ...result, note: rows.length ? 'Everyone in the audience already has this reminder.' : 'Nobody is in the audience.' };
 
@@ -73,10 +76,13 @@ export async function enqueueCampaign(sequelize: Sequelize, campaign: ReminderCa
       values.push(campaign.id, contact.contactId, contact.accountId, due.offsetDays, due.sendOn, contact.email, m.subject.slice(0, 255), m.text, m.html, m.messageId, m.unsubscribeUrl, 'pending', 0, now, now, now);
     }
     const placeholders = part.map(() => `(${COLUMNS.map(() => '?').join(', ')})`).join(', ');
-    const [, affected] = (await sequelize.query(`INSERT IGNORE INTO reminder_outbox (${COLUMNS.join(', ')}) VALUES ${placeholders}`, {
-      type: QueryTypes.INSERT,
-      replacements: values,
-    })) as unknown as [unknown, number];
+    // One statement in autocommit: a deadlock victim is rolled back whole, so running it again is safe.
+    const [, affected] = (await retryOnDeadlock(() =>
+      sequelize.query(`INSERT IGNORE INTO reminder_outbox (${COLUMNS.join(', ')}) VALUES ${placeholders}`, {
+        type: QueryTypes.INSERT,
+        replacements: values,
+      }),
+    )) as unknown as [unknown, number];
     result.enqueued += Number(affected);
   }
   // Rows another instance inserted between our audience read and our insert were ignored.

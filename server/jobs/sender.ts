@@ -15,6 +15,7 @@ import { randomBytes } from 'node:crypto';
 import { hostname } from 'node:os';
 import { QueryTypes, Transaction, type Sequelize } from 'sequelize';
 import { describeMailError, isPermanentMailError, type MailTransport } from '../mail/transport.js';
+import { retryOnDeadlock } from '../db/retry.js';
 
 export interface SenderOptions {
   sequelize: Sequelize;
@@ -84,7 +85,8 @@ type Row = ClaimedMessage & { contactEmail: string | null; optIn: number; unsubs
  */
 export async function claimBatch(sequelize: Sequelize, workerId: string, opts: { batchSize: number; leaseMs: number; now: Date }): Promise<{ claimed: ClaimedMessage[]; cancelled: number; held: number }> {
   // READ COMMITTED: the locking read takes no gap locks, so enqueuers inserting meanwhile never wait on it.
-  return sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED }, async (transaction) => {
+  // A deadlock victim's transaction is rolled back whole, so it is simply run again.
+  return retryOnDeadlock(() => sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED }, async (transaction) => {
     const picked = await sequelize.query<{ id: number }>(
       "SELECT id FROM reminder_outbox WHERE status IN ('pending', 'sending') AND next_attempt_at <= ? LIMIT ? FOR UPDATE SKIP LOCKED",
       { type: QueryTypes.SELECT, replacements: [opts.now, opts.batchSize], transaction },
@@ -123,7 +125,7 @@ export async function claimBatch(sequelize: Sequelize, workerId: string, opts: {
       cancelled: optedOut.length,
       held: held.length,
     };
-  });
+  }));
 }
 
 type Resolved = Required<Omit<SenderOptions, 'log'>> & { log: NonNullable<SenderOptions['log']> };
