@@ -356,6 +356,37 @@ describe('a specialist plans next week and reschedules in the calendar', () => {
       await page.context().close();
     }
   }, 120_000);
+
+  it('when the specialist cancels a visit from its panel, then a second step asks first, the visit is kept as cancelled and leaves the calendar', async () => {
+    const page = await signIn('specialist', { width: 1280, height: 1500 });
+    try {
+      const day = planned.find((d) => d.stops.some((s) => !s.fixed))!;
+      const victim = day.stops.filter((s) => !s.fixed).at(-1)!;
+      await page.goto(`${server.url}/calendar?view=work_week&date=${nextMonday}`);
+      const event = eventOf(page, victim.visitId);
+      await event.waitFor();
+      await event.focus();
+      await page.keyboard.press('Enter');
+      const panel = page.getByRole('dialog');
+      await panel.getByRole('button', { name: 'Cancel visit…' }).click();
+      // The second step holds the focus on the safe answer: keeping it changes nothing.
+      await expect.poll(() => page.evaluate(() => document.activeElement?.textContent?.trim())).toBe('Keep the visit');
+      await page.keyboard.press('Enter');
+      await panel.getByRole('button', { name: 'Cancel visit…' }).waitFor();
+      expect((await page.request.get(`${server.url}/api/visits/${victim.visitId}`).then((r) => r.json())).visit.status).toBe('planned');
+
+      await panel.getByRole('button', { name: 'Cancel visit…' }).click();
+      await page.screenshot({ path: shot('visit-cancel-ask') });
+      await panel.getByRole('button', { name: 'Yes, cancel it' }).click();
+      await panel.getByRole('status').getByText('Visit cancelled').waitFor();
+      await panel.getByText('Cancelled', { exact: true }).waitFor();
+      expect((await page.request.get(`${server.url}/api/visits/${victim.visitId}`).then((r) => r.json())).visit.status).toBe('cancelled');
+      await page.keyboard.press('Escape');
+      await expect.poll(() => event.count()).toBe(0);
+    } finally {
+      await page.context().close();
+    }
+  }, 120_000);
 });
 
 describe('a grower’s visits and calendar feed', () => {

@@ -35,7 +35,8 @@ export function GrowerVisitsPage() {
   const items = visits.data?.items ?? [];
   const now = Date.now();
   const coming = items.filter((v) => v.status !== 'cancelled' && v.status !== 'done' && (!v.startsAt || new Date(v.startsAt).getTime() >= now - 86_400_000));
-  const past = items.filter((v) => !coming.includes(v)).reverse();
+  const cancelled = items.filter((v) => v.status === 'cancelled').reverse();
+  const past = items.filter((v) => !coming.includes(v) && v.status !== 'cancelled').reverse();
 
   return (
     <>
@@ -63,6 +64,14 @@ export function GrowerVisitsPage() {
                 Earlier visits
               </h2>
               <VisitList visits={past} onOpen={setOpen} />
+            </section>
+          )}
+          {cancelled.length > 0 && (
+            <section aria-labelledby="cancelled-title">
+              <h2 id="cancelled-title" className="mb-2 text-xl font-bold text-ink-900">
+                Cancelled visits
+              </h2>
+              <VisitList visits={cancelled} onOpen={setOpen} />
             </section>
           )}
         </div>

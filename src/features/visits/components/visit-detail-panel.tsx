@@ -204,13 +204,45 @@ function VisitDetails({ visit, canEdit, onChanged }: { visit: VisitView; canEdit
         <p className="whitespace-pre-line text-ink-900">{visit.notes || <span className="text-loam-700">No notes.</span>}</p>
       </section>
 
-      {canEdit && visit.status === 'planned' && (
-        <div className="border-t border-loam-200 pt-4">
-          <Button variant="secondary" busy={update.isPending} onClick={() => change({ status: 'done' }, () => 'Marked as done.')}>
-            Mark as done
-          </Button>
+      {canEdit && (visit.status === 'planned' || visit.status === 'requested') && (
+        <div className="flex flex-wrap items-start gap-3 border-t border-loam-200 pt-4">
+          {visit.status === 'planned' && (
+            <Button variant="secondary" busy={update.isPending} onClick={() => change({ status: 'done' }, () => 'Marked as done.')}>
+              Mark as done
+            </Button>
+          )}
+          <CancelVisit visit={visit} busy={update.isPending} onCancel={() => change({ status: 'cancelled' }, () => 'Visit cancelled. It stays in the account’s history.')} />
         </div>
       )}
+    </div>
+  );
+}
+
+/** Calling a visit off takes a second, explicit step; the visit is kept, marked cancelled. */
+function CancelVisit({ visit, busy, onCancel }: { visit: VisitView; busy: boolean; onCancel: () => void }) {
+  const [asking, setAsking] = useState(false);
+  if (!asking) {
+    return (
+      <Button variant="secondary" onClick={() => setAsking(true)}>
+        Cancel visit…
+      </Button>
+    );
+  }
+  const what = visit.startsAt ? `the visit on ${instantText(visit.startsAt)}` : 'this visit request';
+  return (
+    <div role="group" aria-labelledby={`cancel-visit-${visit.id}`} className="w-full rounded-lg border border-brick-300 bg-brick-50 p-3">
+      <p id={`cancel-visit-${visit.id}`} className="mb-2 font-semibold text-ink-900">
+        Cancel {what} with {visit.accountName}? Its time is freed in the specialist’s diary; tell the grower yourself.
+      </p>
+      <div className="flex flex-wrap gap-2">
+        <Button variant="danger" busy={busy} onClick={onCancel}>
+          Yes, cancel it
+        </Button>
+        {/* The safe answer takes the focus, so Enter on the next key press keeps the visit. */}
+        <Button variant="secondary" disabled={busy} onClick={() => setAsking(false)} autoFocus>
+          Keep the visit
+        </Button>
+      </div>
     </div>
   );
 }
