@@ -109,7 +109,7 @@ export async function findAccountWithFleet(scope: WhereOptions, id: number, tran
     () =>
       Planter.findAll({
         where: { accountId: id },
-        attributes: { include: [[literal("(SELECT COUNT(*) FROM installs i WHERE i.planter_id = `Planter`.`id` AND i.status = 'installed')"), 'installCount']] },
+        attributes: { include: [[literal('`Planter`.`installed_count`'), 'installCount']] },
         order: [['name', 'ASC']],
         transaction,
       }),

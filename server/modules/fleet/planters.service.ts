@@ -163,7 +163,8 @@ export async function listPlanters(user: SessionUser, query: PlanterListQuery) {
     plainSelect<PlanterRow>(
       sequelize,
       'SELECT p.id, p.name, p.maker, p.model_year AS modelYear, p.rows, p.row_spacing_in AS rowSpacingIn, p.frame_type AS frameType, a.id AS accountId, a.name AS accountName, ' +
-        "(SELECT COUNT(*) FROM installs i WHERE i.planter_id = p.id AND i.status = 'installed') AS installCount " +
+        // Kept by triggers on installs (migration 2026.12.02T01): no per-row count here.
+        'p.installed_count AS installCount ' +
         `FROM (SELECT p.id FROM ${from} WHERE ${where} ORDER BY ${orderBy} LIMIT ? OFFSET ?) page ` +
         `JOIN planters p ON p.id = page.id JOIN accounts a ON a.id = p.account_id ORDER BY ${orderBy}`,
       [...replacements, query.pageSize, (query.page - 1) * query.pageSize],
@@ -210,7 +211,9 @@ const where = (i: { scope: string; rowFrom: number | null; rowTo: number | null 
 
 export async function createInstall(sequelize: Sequelize, user: SessionUser, planterId: number, input: InstallInput) {
   return sequelize.transaction(async (transaction) => {
-    const planter = await Planter.findByPk(planterId, { transaction });
+    // Locked first: the install-count trigger updates this row, and two installs on one planter
+    // would otherwise both hold the foreign key's shared lock and deadlock upgrading it.
+    const planter = await Planter.findByPk(planterId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!planter) throw notFound('That planter');
     await accountFor(user, planter.accountId, 'edit', transaction);
     const { component, values } = await checkInstall(planter, input, transaction);
@@ -232,7 +235,7 @@ export async function updateInstall(sequelize: Sequelize, user: SessionUser, id:
     .transaction(async (transaction) => {
       const install = await Install.findByPk(id, { transaction });
       if (!install) throw notFound('That install');
-      const planter = (await Planter.findByPk(install.planterId, { transaction }))!;
+      const planter = (await Planter.findByPk(install.planterId, { transaction, lock: transaction.LOCK.UPDATE }))!;
       await accountFor(user, planter.accountId, 'edit', transaction);
       assertVersion(install.version, input.version);
       const { version: _v, ...rest } = input;
@@ -259,7 +262,7 @@ export async function deleteInstall(sequelize: Sequelize, user: SessionUser, id:
   await sequelize.transaction(async (transaction) => {
     const install = await Install.findByPk(id, { transaction, include: [{ model: Component, as: 'component' }] });
     if (!install) throw notFound('That install');
-    const planter = (await Planter.findByPk(install.planterId, { transaction }))!;
+    const planter = (await Planter.findByPk(install.planterId, { transaction, lock: transaction.LOCK.UPDATE }))!;
     await accountFor(user, planter.accountId, 'edit', transaction);
     await install.destroy({ transaction });
     const component = (install as Install & { component: Component }).component;
