@@ -60,7 +60,8 @@ export interface BenchApp {
 /** The app in a child process on an ephemeral 127.0.0.1 port, on the given database. */
 export async function startBenchApp(opts: { databaseUrl: string; dataDir: string }): Promise<BenchApp> {
   const child: ChildProcess = fork(here, [], {
-    execArgv: ['--import', 'tsx'],
+    // BENCH_NODE_ARGS adds flags to the app's node, e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof" to profile it.
+    execArgv: ['--import', 'tsx', ...(process.env.BENCH_NODE_ARGS?.split(/\s+/).filter(Boolean) ?? [])],
     env: { ...process.env, ROWPATH_BENCH_CHILD: '1', BENCH_DATABASE_URL: opts.databaseUrl, BENCH_DATA_DIR: opts.dataDir },
     stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
   });
