@@ -40,7 +40,7 @@ export function isDatabaseDown(err: unknown): boolean {
   const codes = [e?.code, e?.original?.code, e?.parent?.code];
   return (
     e?.name === 'SequelizeConnectionAcquireTimeoutError' ||
-    codes.some((c) => c && /^(ECONNREFUSED|ECONNRESET|ER_GET_CONNECTION_TIMEOUT|ER_CONNECTION_TIMEOUT|ER_SOCKET_UNEXPECTED_CLOSE|PROTOCOL_CONNECTION_LOST|ER_CLOSING_POOL|ETIMEDOUT|ENOENT)$/.test(c))
+    codes.some((c) => c && /^(ECONNREFUSED|ECONNRESET|ER_GET_CONNECTION_TIMEOUT|ER_CONNECTION_TIMEOUT|ER_SOCKET_UNEXPECTED_CLOSE|PROTOCOL_CONNECTION_LOST|ER_CLOSING_POOL|ETIMEDOUT|ENOENT|EPIPE)$/.test(c))
   );
 }
 

@@ -1,10 +1,7 @@
 // When two instances write the same keys at once, InnoDB may roll one back as a deadlock victim
 // (errno 1213, "try restarting transaction"). The work is run again instead of failing the job.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import express from 'express';
-import request from 'supertest';
-import { DatabaseError, QueryTypes, type Sequelize } from 'sequelize';
-import { errorHandler } from '../../server/http/errors.js';
+import { QueryTypes, type Sequelize } from 'sequelize';
 import { createSequelize } from '../../server/db/sequelize.js';
 import { isRetryableLockError, retryOnDeadlock } from '../../server/db/retry.js';
 import { testApp, uid, type TestApp } from '../helpers/app.js';
@@ -84,20 +81,5 @@ describe('deadlock retry', () => {
       ),
     ).rejects.toBe(victim);
     expect(runs).toBe(3);
-  });
-});
-
-describe('a lock error reaching the API', () => {
-  it('when a request loses a deadlock, then it answers 503 busy with Retry-After, not 500', async () => {
-    const app = express();
-    app.post('/x', () => {
-      const parent = Object.assign(new Error('Deadlock found when trying to get lock; try restarting transaction'), { errno: 1213, sql: 'UPDATE …' });
-      throw new DatabaseError(parent as never);
-    });
-    app.use(errorHandler(() => undefined));
-    const res = await request(app).post('/x');
-    expect(res.status).toBe(503);
-    expect(res.headers['retry-after']).toBe('1');
-    expect(res.body.error.code).toBe('busy');
   });
 });
