@@ -19,7 +19,8 @@ export interface Database {
 
 function describeUrl(url: string) {
   const u = new URL(url);
-  return `${u.hostname}:${u.port || 3306}/${u.pathname.slice(1)}`;
+  const socket = u.searchParams.get('socketPath');
+  return `${u.hostname}:${u.port || 3306}/${u.pathname.slice(1)}${socket ? ` (through its socket ${socket})` : ''}`;
 }
 
 /** Starts (or reaches) MariaDB, checks the connection, registers models and migrates. */
