@@ -398,6 +398,8 @@ describe('a grower’s visits and calendar feed', () => {
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Visits' }).click();
       await page.getByRole('heading', { level: 1, name: 'Visits' }).waitFor();
       await page.getByRole('heading', { name: 'Coming up' }).waitFor();
+      // Last spring's check-ups (demo data) are listed apart from what is coming.
+      await page.getByRole('region', { name: 'Earlier visits' }).getByText('Pre-season check-up').first().waitFor();
 
       await page.getByLabel('What do you need?').selectOption({ label: 'Troubleshooting' });
       await page.getByLabel('When suits you?').selectOption({ label: 'Afternoons (13:00–17:00)' });

@@ -58,22 +58,8 @@ export function GrowerVisitsPage() {
               <VisitList visits={coming} onOpen={setOpen} />
             )}
           </section>
-          {past.length > 0 && (
-            <section aria-labelledby="past-title">
-              <h2 id="past-title" className="mb-2 text-xl font-bold text-ink-900">
-                Earlier visits
-              </h2>
-              <VisitList visits={past} onOpen={setOpen} />
-            </section>
-          )}
-          {cancelled.length > 0 && (
-            <section aria-labelledby="cancelled-title">
-              <h2 id="cancelled-title" className="mb-2 text-xl font-bold text-ink-900">
-                Cancelled visits
-              </h2>
-              <VisitList visits={cancelled} onOpen={setOpen} />
-            </section>
-          )}
+          <VisitSection id="past-title" title="Earlier visits" visits={past} onOpen={setOpen} />
+          <VisitSection id="cancelled-title" title="Cancelled visits" visits={cancelled} onOpen={setOpen} />
         </div>
         <aside className="space-y-6">
           <section aria-labelledby="request-title" className="rounded-xl border border-loam-300 bg-white p-4">
@@ -92,6 +78,19 @@ export function GrowerVisitsPage() {
       </div>
       <VisitDetailPanel visitId={open?.id ?? null} initial={open ?? undefined} canEdit={false} onClose={() => setOpen(null)} />
     </>
+  );
+}
+
+/** A titled list of visits, left out when there are none. */
+function VisitSection({ id, title, visits, onOpen }: { id: string; title: string; visits: VisitView[]; onOpen: (v: VisitView) => void }) {
+  if (visits.length === 0) return null;
+  return (
+    <section aria-labelledby={id}>
+      <h2 id={id} className="mb-2 text-xl font-bold text-ink-900">
+        {title}
+      </h2>
+      <VisitList visits={visits} onOpen={onOpen} />
+    </section>
   );
 }
 
