@@ -13,24 +13,14 @@
 import fs from 'node:fs';
 import { createRequire } from 'node:module';
 import path from 'node:path';
-import type { Browser, Locator, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Locator, Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { navItemsByRole } from '../../src/app/layout/nav-items.js';
 import { signedIn } from '../helpers/app.js';
-import { launchChromium, SCREENSHOT_DIR } from '../helpers/chromium.js';
-import { startServer, type RunningServer } from '../helpers/server-process.js';
+import { SCREENSHOT_DIR } from '../helpers/chromium.js';
+import { DEMO_PASSWORD, e2eEnv, useDemoApp } from '../helpers/demo-app.js';
 
-const PORT = process.env.E2E_PORT ?? '3620';
-const env = {
-  PORT,
-  DB_PORT: process.env.E2E_DB_PORT ?? '3621',
-  ROWPATH_DATA_DIR: `.data/e2e-${PORT}`,
-  CLIENT_DIST_DIR: `.data/dist-${PORT}`,
-  // Its own SMTP stand-in (port + 3, as the other e2e files), so that a test message arrives on
-  // Sent mail with the reminder links in it.
-  LOCAL_SMTP_PORT: process.env.LOCAL_SMTP_PORT ?? String(Number(PORT) + 3),
-};
-const DEMO_PASSWORD = 'rowpath-demo';
+const env = e2eEnv({ port: '3620', dbPort: '3621', smtpPort: true });
 const ROLES = ['admin', 'manager', 'specialist', 'grower'] as const;
 
 function axeSource(): string | null {
@@ -42,21 +32,10 @@ function axeSource(): string | null {
 }
 const AXE = axeSource();
 
-let server: RunningServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  server = await startServer(env);
-  browser = await launchChromium();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const app = useDemoApp(env, { fresh: false });
 
 async function signInByKeyboard(page: Page, email: string) {
-  await page.goto(`${server.url}/sign-in`);
+  await page.goto(`${app.server.url}/sign-in`);
   await page.getByLabel(/e-?mail/i).waitFor();
   // From the top of the page, Tab to each field: no clicks.
   await page.keyboard.press('Tab');
@@ -73,8 +52,8 @@ async function signInByKeyboard(page: Page, email: string) {
 async function pagesFor(page: Page, role: (typeof ROLES)[number]): Promise<{ name: string; url: string }[]> {
   const pages = navItemsByRole[role].map((item) => ({ name: item.label, url: item.to }));
   if (role !== 'grower') {
-    const account = (await (await page.request.get(`${server.url}/api/accounts?pageSize=1`)).json()).items?.[0];
-    const planter = (await (await page.request.get(`${server.url}/api/planters?pageSize=1`)).json()).items?.[0];
+    const account = (await (await page.request.get(`${app.server.url}/api/accounts?pageSize=1`)).json()).items?.[0];
+    const planter = (await (await page.request.get(`${app.server.url}/api/planters?pageSize=1`)).json()).items?.[0];
     if (account) pages.push({ name: 'Account', url: `/accounts/${account.id}` }, { name: 'Account roadmap', url: `/accounts/${account.id}/roadmap` });
     if (planter) pages.push({ name: 'Planter', url: `/planters/${planter.id}` }, { name: 'Planter sizing', url: `/planters/${planter.id}/sizing` });
   }
@@ -82,7 +61,7 @@ async function pagesFor(page: Page, role: (typeof ROLES)[number]): Promise<{ nam
 }
 
 async function settle(page: Page, url: string) {
-  await page.goto(`${server.url}${url}`);
+  await page.goto(`${app.server.url}${url}`);
   await page.getByRole('navigation', { name: 'Main' }).waitFor();
   await page.waitForLoadState('networkidle');
   // Loading states give way to content (or to an empty or error state).
@@ -155,10 +134,10 @@ async function axeProblems(page: Page): Promise<string[]> {
 
 describe('keyboard alone', () => {
   it(`when a grower signs in with the keyboard only, then the home page opens${AXE ? '; the sign-in page has no serious or critical axe finding' : ''}`, async () => {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    const context = await app.browser.newContext({ viewport: { width: 1280, height: 800 } });
     const page = await context.newPage();
     try {
-      await page.goto(`${server.url}/sign-in`);
+      await page.goto(`${app.server.url}/sign-in`);
       await page.getByLabel(/e-?mail/i).waitFor();
       expect(await axeProblems(page)).toEqual([]);
       expect(await unreachableByTab(page)).toEqual([]);
@@ -174,7 +153,7 @@ describe('keyboard alone', () => {
 for (const role of ROLES) {
   describe(`every main page of the ${role}`, () => {
     it(`when the ${role} tabs through each page, then every visible control is reached${AXE ? ', and axe finds nothing serious or critical' : ''}`, { timeout: 600_000 }, async () => {
-      const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+      const context = await app.browser.newContext({ viewport: { width: 1280, height: 800 } });
       const page = await context.newPage();
       const problems: string[] = [];
       try {
@@ -198,7 +177,7 @@ for (const role of ROLES) {
 
 /** A page the API serves itself (a reminder's link): no app frame to wait for. */
 async function settleServed(page: Page, url: string) {
-  await page.goto(url.startsWith('http') ? url : `${server.url}${url}`);
+  await page.goto(url.startsWith('http') ? url : `${app.server.url}${url}`);
   await page.locator('main').waitFor();
 }
 
@@ -243,7 +222,7 @@ describe('pages behind the menus', () => {
     'when the admin opens a campaign, the outbox, a received reminder and its links, the other calendar views and a missing page, then every control is reached by Tab and axe finds nothing serious or critical',
     { timeout: 300_000 },
     async () => {
-      const api = await signedIn(server.url, { email: 'admin@rowpath.test' }, DEMO_PASSWORD);
+      const api = await signedIn(app.server.url, { email: 'admin@rowpath.test' }, DEMO_PASSWORD);
       const campaigns = (await api.get('/api/campaigns?pageSize=100')).body.items as { id: number; name: string }[];
       const campaign = campaigns.find((c) => c.name === CHECKUP);
       expect(campaign, `the demo campaign "${CHECKUP}"`).toBeDefined();
@@ -270,7 +249,7 @@ describe('pages behind the menus', () => {
         ((await api.get('/api/sent-mail?pageSize=50&q=%5BTest%5D')).body.items as { id: number; messageId: string }[]).find((m) => bare(m.messageId) === bare(sent.messageId)),
       );
 
-      const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, locale: 'en-US' });
+      const context = await app.browser.newContext({ viewport: { width: 1280, height: 800 }, locale: 'en-US' });
       const page = await context.newPage();
       const problems: string[] = [];
       try {
@@ -331,9 +310,9 @@ describe('a form by keyboard alone', () => {
     'when a manager adds an account with the keyboard only, then it is saved as typed; the form dialog, its field messages and the delete confirmation pass axe and keep Tab inside',
     { timeout: 180_000 },
     async () => {
-      const api = await signedIn(server.url, { email: 'manager@rowpath.test' }, DEMO_PASSWORD);
+      const api = await signedIn(app.server.url, { email: 'manager@rowpath.test' }, DEMO_PASSWORD);
       const name = `Keyboard Acres ${Date.now().toString(36)}`;
-      const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+      const context = await app.browser.newContext({ viewport: { width: 1280, height: 800 } });
       const page = await context.newPage();
       const problems: string[] = [];
       try {

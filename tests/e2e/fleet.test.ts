@@ -4,40 +4,21 @@
 // overwritten; a grower reads their own fleet without any way to change it.
 import fs from 'node:fs';
 import path from 'node:path';
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchChromium, SCREENSHOT_DIR } from '../helpers/chromium.js';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import { SCREENSHOT_DIR } from '../helpers/chromium.js';
 import { signedIn, uid } from '../helpers/app.js';
-import { startServer, type RunningServer } from '../helpers/server-process.js';
+import { DEMO_PASSWORD, e2eEnv, useDemoApp } from '../helpers/demo-app.js';
 
-const port = process.env.E2E_PORT ?? '3510';
-const env = {
-  PORT: port,
-  DB_PORT: process.env.E2E_DB_PORT ?? '3511',
-  ROWPATH_DATA_DIR: `.data/e2e-${port}`,
-  CLIENT_DIST_DIR: `.data/dist-${port}`,
-};
-const DEMO_PASSWORD = 'rowpath-demo';
+const env = e2eEnv({ port: '3510', dbPort: '3511' });
 const shot = (name: string) => path.join(SCREENSHOT_DIR, `fleet-${name}.png`);
 
-let server: RunningServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  fs.rmSync(env.ROWPATH_DATA_DIR, { recursive: true, force: true });
-  server = await startServer(env);
-  browser = await launchChromium();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const app = useDemoApp(env);
 
 async function signIn(role: string, viewport = { width: 1280, height: 900 }): Promise<Page> {
-  const context = await browser.newContext({ viewport });
+  const context = await app.browser.newContext({ viewport });
   const page = await context.newPage();
-  await page.goto(`${server.url}/sign-in`);
+  await page.goto(`${app.server.url}/sign-in`);
   await page.getByLabel('E-mail').fill(`${role}@rowpath.test`);
   await page.getByLabel('Password').fill(DEMO_PASSWORD);
   await page.getByRole('button', { name: 'Sign in' }).click();
@@ -61,7 +42,7 @@ describe('a specialist records a grower fleet', () => {
       const nav = (await page.getByRole('navigation', { name: 'Main' }).getByRole('link').allInnerTexts()).map((s) => s.trim());
       expect(nav).toEqual(expect.arrayContaining(['Planters', 'Catalog']));
 
-      await page.goto(`${server.url}/accounts`);
+      await page.goto(`${app.server.url}/accounts`);
       await page.getByRole('button', { name: 'Add an account' }).click();
       const form = dialog(page);
       await form.getByLabel('Operation name').fill(accountName);
@@ -249,7 +230,7 @@ describe('a specialist records a grower fleet', () => {
       await dialog(page).getByLabel('Remote valves').fill('6');
 
       // Meanwhile, on another device, the manager changes the same tractor.
-      const other = await signedIn(server.url, { email: 'manager@rowpath.test' }, DEMO_PASSWORD);
+      const other = await signedIn(app.server.url, { email: 'manager@rowpath.test' }, DEMO_PASSWORD);
       const accountId = Number(accountUrl.split('/').pop());
       const tractor = (await other.get(`/api/accounts/${accountId}`)).body.account.tractors[0];
       expect((await other.patch(`/api/tractors/${tractor.id}`, { remoteValves: 5, version: tractor.version })).status).toBe(200);
@@ -267,7 +248,7 @@ describe('a specialist records a grower fleet', () => {
   }, 120_000);
 
   it('when planters of 4, 31 (split-row, two bars) and 48 rows are opened, then every row unit is drawn and reachable, at 1280 px and on a tablet', async () => {
-    const api = await signedIn(server.url, { email: 'specialist@rowpath.test' }, DEMO_PASSWORD);
+    const api = await signedIn(app.server.url, { email: 'specialist@rowpath.test' }, DEMO_PASSWORD);
     const accountId = Number(accountUrl.split('/').pop());
     const meter = (await api.get('/api/components?q=KR-SM-110')).body.items[0];
     const body = (name: string, rows: number, spacing: number, toolbars: object[]) => ({
@@ -289,7 +270,7 @@ describe('a specialist records a grower fleet', () => {
     const page = await signIn('specialist');
     try {
       for (const [name, rows] of [['4-row garden planter', 4], ['31-row split-row planter', 31], ['48-row planter', 48]] as const) {
-        await page.goto(`${server.url}/planters/${made[name]}`);
+        await page.goto(`${app.server.url}/planters/${made[name]}`);
         await page.getByRole('heading', { level: 1, name }).waitFor();
         await expect(page.getByRole('button', { name: /^Row \d+: Vacuum seed meter/ }).count()).resolves.toBe(rows);
         // The last row can be reached and opened from the keyboard, even when the drawing scrolls.
@@ -300,14 +281,14 @@ describe('a specialist records a grower fleet', () => {
         await dialog(page).getByRole('heading', { name: `Row ${rows}`, exact: true }).waitFor();
         await page.keyboard.press('Escape');
       }
-      await page.goto(`${server.url}/planters/${made['31-row split-row planter']}`);
+      await page.goto(`${app.server.url}/planters/${made['31-row split-row planter']}`);
       await rowButton(page, 31).waitFor();
       await expect(page.getByRole('button', { name: /^(Front|Rear) bar, 39 ft/ }).count()).resolves.toBe(2);
       await page.screenshot({ path: shot('planter-split-row'), fullPage: true });
-      await page.goto(`${server.url}/planters/${made['48-row planter']}`);
+      await page.goto(`${app.server.url}/planters/${made['48-row planter']}`);
       await rowButton(page, 48).waitFor();
       await page.screenshot({ path: shot('planter-48-rows'), fullPage: true });
-      await page.goto(`${server.url}/planters/${made['4-row garden planter']}`);
+      await page.goto(`${app.server.url}/planters/${made['4-row garden planter']}`);
       await rowButton(page, 4).waitFor();
       await page.screenshot({ path: shot('planter-4-rows') });
     } finally {
@@ -330,14 +311,14 @@ describe('a specialist records a grower fleet', () => {
   it('when staff open the planter list and the catalog, then they find the planter; specialists read the catalog and managers can edit it', async () => {
     const specialist = await signIn('specialist');
     try {
-      await specialist.goto(`${server.url}/planters`);
+      await specialist.goto(`${app.server.url}/planters`);
       await specialist.getByLabel('Search planters').fill(accountName);
       await specialist.waitForURL(/q=/);
       await specialist.getByRole('link', { name: accountName }).first().waitFor();
       // The search reaches the server after a pause; until then the unfiltered page stays on screen.
       await expect.poll(() => specialist.getByRole('link', { name: '16-row planter' }).count(), { timeout: 15_000 }).toBe(1);
 
-      await specialist.goto(`${server.url}/catalog`);
+      await specialist.goto(`${app.server.url}/catalog`);
       await specialist.getByRole('heading', { level: 1, name: 'Component catalog' }).waitFor();
       await specialist.getByRole('cell', { name: 'KR-SM-110', exact: true }).waitFor();
       await expect(specialist.getByRole('button', { name: 'Add a component' }).count()).resolves.toBe(0);
@@ -352,7 +333,7 @@ describe('a specialist records a grower fleet', () => {
 
     const manager = await signIn('manager');
     try {
-      await manager.goto(`${server.url}/catalog`);
+      await manager.goto(`${app.server.url}/catalog`);
       await manager.getByRole('cell', { name: 'KR-SM-110', exact: true }).waitFor();
       await manager.waitForLoadState('networkidle');
       await manager.screenshot({ path: shot('catalog'), fullPage: true });
@@ -375,7 +356,7 @@ describe('CSV import and export of accounts', () => {
     const page = await signIn('specialist');
     const name = `Imported Test Farms ${uid()}`;
     try {
-      await page.goto(`${server.url}/accounts`);
+      await page.goto(`${app.server.url}/accounts`);
       await page.getByRole('button', { name: 'Import CSV' }).click();
       const panel = dialog(page);
       const bad = [
@@ -402,7 +383,7 @@ describe('CSV import and export of accounts', () => {
       await page.getByRole('heading', { level: 1, name }).waitFor();
       await page.locator('#contacts').getByText('ada@growers.rowpath.test').waitFor();
 
-      await page.goto(`${server.url}/accounts?q=${encodeURIComponent(name)}`);
+      await page.goto(`${app.server.url}/accounts?q=${encodeURIComponent(name)}`);
       const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Export CSV' }).click()]);
       const text = fs.readFileSync((await download.path())!, 'utf8');
       expect(text.split(/\r?\n/)[0]).toMatch(/account_name/);

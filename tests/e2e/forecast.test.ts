@@ -5,21 +5,12 @@
 // A specialist sees only their own figures and no quotas.
 import fs from 'node:fs';
 import path from 'node:path';
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchChromium, SCREENSHOT_DIR } from '../helpers/chromium.js';
-import { signedIn } from '../helpers/app.js';
-import { startServer, type RunningServer } from '../helpers/server-process.js';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import { SCREENSHOT_DIR } from '../helpers/chromium.js';
+import { DEMO_PASSWORD, e2eEnv, useDemoApp } from '../helpers/demo-app.js';
 
-const port = process.env.E2E_PORT ?? '3560';
-const env = {
-  PORT: port,
-  DB_PORT: process.env.E2E_DB_PORT ?? '3561',
-  ROWPATH_DATA_DIR: `.data/e2e-${port}`,
-  CLIENT_DIST_DIR: `.data/dist-${port}`,
-  LOCAL_SMTP_PORT: process.env.LOCAL_SMTP_PORT ?? String(Number(port) + 3),
-};
-const DEMO_PASSWORD = 'rowpath-demo';
+const env = e2eEnv({ port: '3560', dbPort: '3561', smtpPort: true });
 const MANAGER = 'manager@rowpath.test';
 const SPECIALIST = 'specialist@rowpath.test';
 const THIS_SEASON = 2027;
@@ -40,15 +31,8 @@ interface Week {
   over: boolean;
 }
 
-let server: RunningServer;
-let browser: Browser;
-type ApiClient = Awaited<ReturnType<typeof signedIn>>;
-const clients = new Map<string, ApiClient>();
-
-async function apiAs(email: string): Promise<ApiClient> {
-  if (!clients.has(email)) clients.set(email, await signedIn(server.url, { email }, DEMO_PASSWORD));
-  return clients.get(email)!;
-}
+const app = useDemoApp(env);
+const { apiAs } = app;
 
 async function rowsOf(email: string, query: string): Promise<Row[]> {
   const res = await (await apiAs(email)).get(`/api/forecast?${query}`);
@@ -56,19 +40,8 @@ async function rowsOf(email: string, query: string): Promise<Row[]> {
   return res.body.rows as Row[];
 }
 
-beforeAll(async () => {
-  fs.rmSync(env.ROWPATH_DATA_DIR, { recursive: true, force: true });
-  server = await startServer(env);
-  browser = await launchChromium();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
-
 async function signIn(page: Page, email: string) {
-  await page.goto(`${server.url}/sign-in`);
+  await page.goto(`${app.server.url}/sign-in`);
   await page.getByLabel(/e-?mail/i).fill(email);
   await page.getByLabel(/password/i).fill(DEMO_PASSWORD);
   await page.getByRole('button', { name: /sign in/i }).click();
@@ -77,7 +50,7 @@ async function signIn(page: Page, email: string) {
 }
 
 async function withPage<T>(email: string, run: (page: Page) => Promise<T>, viewport = { width: 1280, height: 900 }): Promise<T> {
-  const context = await browser.newContext({ viewport, acceptDownloads: true });
+  const context = await app.browser.newContext({ viewport, acceptDownloads: true });
   const page = await context.newPage();
   try {
     await signIn(page, email);
@@ -221,7 +194,7 @@ describe('the manager’s forecast', () => {
 
   it('when the manager exports the CSV, then the download starts with the header line for the chosen grouping', async () => {
     await withPage(MANAGER, async (page) => {
-      await page.goto(`${server.url}/forecast?groupBy=specialist&season=${THIS_SEASON}`);
+      await page.goto(`${app.server.url}/forecast?groupBy=specialist&season=${THIS_SEASON}`);
       await page.getByRole('heading', { level: 1, name: 'Forecast' }).waitFor();
       const link = page.getByRole('link', { name: 'Export CSV' });
       expect(await link.getAttribute('href')).toBe(`/api/forecast/export.csv?groupBy=specialist&season=${THIS_SEASON}`);

@@ -2,36 +2,16 @@
 // demo role signs in in Chromium and sees its own navigation; data survives a restart; and
 // `npm run db:reset` rebuilds the demo.
 import { spawnSync } from 'node:child_process';
-import fs from 'node:fs';
 import path from 'node:path';
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchChromium, SCREENSHOT_DIR } from '../helpers/chromium.js';
+import { describe, expect, it } from 'vitest';
+import { SCREENSHOT_DIR } from '../helpers/chromium.js';
 import { client, signedIn, uid } from '../helpers/app.js';
-import { startServer, type RunningServer } from '../helpers/server-process.js';
+import { startServer } from '../helpers/server-process.js';
 import { navItemsByRole } from '../../src/app/layout/nav-items.js';
+import { DEMO_PASSWORD, e2eEnv, useDemoApp } from '../helpers/demo-app.js';
 
-const env = {
-  PORT: process.env.E2E_PORT ?? '3390',
-  DB_PORT: process.env.E2E_DB_PORT ?? '3391',
-  ROWPATH_DATA_DIR: `.data/e2e-${process.env.E2E_PORT ?? '3390'}`,
-  CLIENT_DIST_DIR: `.data/dist-${process.env.E2E_PORT ?? '3390'}`,
-  LOCAL_SMTP_PORT: process.env.E2E_SMTP_PORT ?? '3392',
-};
-const DEMO_PASSWORD = 'rowpath-demo';
-let server: RunningServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  fs.rmSync(env.ROWPATH_DATA_DIR, { recursive: true, force: true });
-  server = await startServer(env);
-  browser = await launchChromium();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const env = e2eEnv({ port: '3390', dbPort: '3391', smtpPort: process.env.E2E_SMTP_PORT ?? '3392' });
+const app = useDemoApp(env);
 
 // Each role must see exactly its own menu, and the differences that matter are pinned here too.
 const expectedNav = Object.fromEntries(Object.entries(navItemsByRole).map(([role, items]) => [role, items.map((i) => i.label)]));
@@ -40,17 +20,17 @@ const mustNotSee: Record<string, string[]> = { admin: [], manager: ['Users'], sp
 
 describe('first start and sign-in for every role', () => {
   it('when the start command runs on an empty data directory, then it creates the database and loads the demo', () => {
-    expect(server.output()).toMatch(/Creating a MariaDB data directory/);
-    expect(server.output()).toMatch(/loading the demo dealership/);
-    expect(server.output()).toContain(DEMO_PASSWORD);
+    expect(app.server.output()).toMatch(/Creating a MariaDB data directory/);
+    expect(app.server.output()).toMatch(/loading the demo dealership/);
+    expect(app.server.output()).toContain(DEMO_PASSWORD);
   });
 
   for (const role of ['admin', 'manager', 'specialist', 'grower'] as const) {
     it(`when the demo ${role} signs in, then the ${role}'s own navigation and home page show`, async () => {
-      const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+      const context = await app.browser.newContext({ viewport: { width: 1280, height: 800 } });
       const page = await context.newPage();
       try {
-        await page.goto(`${server.url}/`);
+        await page.goto(`${app.server.url}/`);
         await page.waitForURL(/\/sign-in/);
         await page.getByLabel(/e-?mail/i).fill(`${role}@rowpath.test`);
         await page.getByLabel(/password/i).fill(DEMO_PASSWORD);
@@ -70,13 +50,13 @@ describe('first start and sign-in for every role', () => {
   }
 
   it('when a signed-in user opens a page that does not exist, then the 404 page shows inside the app', async () => {
-    const page = await browser.newPage();
-    await page.goto(`${server.url}/sign-in`);
+    const page = await app.browser.newPage();
+    await page.goto(`${app.server.url}/sign-in`);
     await page.getByLabel(/e-?mail/i).fill('specialist@rowpath.test');
     await page.getByLabel(/password/i).fill(DEMO_PASSWORD);
     await page.getByRole('button', { name: /sign in/i }).click();
     await page.getByRole('navigation', { name: 'Main' }).waitFor();
-    await page.goto(`${server.url}/no-such-page`);
+    await page.goto(`${app.server.url}/no-such-page`);
     await page.getByRole('navigation', { name: 'Main' }).waitFor();
     await expect(page.getByText(/not found|no page|doesn.t exist/i).first().isVisible()).resolves.toBe(true);
     await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'foundation-404.png') });
@@ -86,23 +66,23 @@ describe('first start and sign-in for every role', () => {
 
 describe('restart and reset', () => {
   it('when the app is stopped and started again, then data entered before is still there', async () => {
-    const admin = await signedIn(server.url, { email: 'admin@rowpath.test' }, DEMO_PASSWORD);
+    const admin = await signedIn(app.server.url, { email: 'admin@rowpath.test' }, DEMO_PASSWORD);
     const email = `kept-${uid()}@rowpath.test`;
     const created = await admin.post('/api/admin/users', { email, name: 'Kept Across Restart', role: 'admin', password: 'long-enough-pass' });
     expect(created.status).toBe(201);
 
-    const stopped = await server.stop();
+    const stopped = await app.server.stop();
     expect(stopped.code).toBe(0);
     expect(stopped.output).toMatch(/stopped cleanly/);
-    server = await startServer(env);
-    expect(server.output()).not.toMatch(/loading the demo dealership/);
-    expect((await client(server.url).signIn(email, 'long-enough-pass')).status).toBe(200);
+    app.server = await startServer(env);
+    expect(app.server.output()).not.toMatch(/loading the demo dealership/);
+    expect((await client(app.server.url).signIn(email, 'long-enough-pass')).status).toBe(200);
 
-    await server.stop();
+    await app.server.stop();
     const reset = spawnSync(process.execPath, ['--import', 'tsx', 'scripts/db-reset.ts'], { env: { ...process.env, ...env }, encoding: 'utf8' });
     expect(reset.status, reset.stdout + reset.stderr).toBe(0);
-    server = await startServer(env);
-    expect((await client(server.url).signIn(email, 'long-enough-pass')).status).toBe(401);
-    expect((await client(server.url).signIn('admin@rowpath.test', DEMO_PASSWORD)).status).toBe(200);
+    app.server = await startServer(env);
+    expect((await client(app.server.url).signIn(email, 'long-enough-pass')).status).toBe(401);
+    expect((await client(app.server.url).signIn('admin@rowpath.test', DEMO_PASSWORD)).status).toBe(200);
   });
 });

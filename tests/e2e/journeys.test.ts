@@ -15,22 +15,12 @@
 //     specialist and the grower find the request in the app.
 import fs from 'node:fs';
 import path from 'node:path';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { launchChromium, SCREENSHOT_DIR } from '../helpers/chromium.js';
-import { signedIn } from '../helpers/app.js';
-import { startServer, type RunningServer } from '../helpers/server-process.js';
+import { SCREENSHOT_DIR } from '../helpers/chromium.js';
+import { DEMO_PASSWORD, e2eEnv, useDemoApp } from '../helpers/demo-app.js';
 
-const port = process.env.E2E_PORT ?? '3640';
-const env = {
-  PORT: port,
-  DB_PORT: process.env.E2E_DB_PORT ?? '3641',
-  ROWPATH_DATA_DIR: `.data/e2e-${port}`,
-  CLIENT_DIST_DIR: `.data/dist-${port}`,
-  // This file's own SMTP stand-in, apart from every other e2e file's.
-  LOCAL_SMTP_PORT: process.env.LOCAL_SMTP_PORT ?? String(Number(port) + 3),
-};
-const DEMO_PASSWORD = 'rowpath-demo';
+const env = e2eEnv({ port: '3640', dbPort: '3641', smtpPort: true });
 const SPECIALIST = 'specialist@rowpath.test';
 const MANAGER = 'manager@rowpath.test';
 const ADMIN = 'admin@rowpath.test';
@@ -38,27 +28,8 @@ const GROWER = 'grower@rowpath.test';
 const EARLY_ORDER = 'Early-order reminder — 2027 season';
 const VIEWPORT = { width: 1280, height: 900 };
 
-let server: RunningServer;
-let browser: Browser;
-type ApiClient = Awaited<ReturnType<typeof signedIn>>;
-const clients = new Map<string, ApiClient>();
-
-/** A signed-in API client, for arranging and for checking the screen against the server. */
-async function apiAs(email: string): Promise<ApiClient> {
-  if (!clients.has(email)) clients.set(email, await signedIn(server.url, { email }, DEMO_PASSWORD));
-  return clients.get(email)!;
-}
-
-beforeAll(async () => {
-  fs.rmSync(env.ROWPATH_DATA_DIR, { recursive: true, force: true });
-  server = await startServer(env);
-  browser = await launchChromium();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const app = useDemoApp(env);
+const { apiAs } = app;
 
 // The page a failing step leaves behind is saved too (journey-failed-<step>.png), to see why.
 let lastPage: Page | null = null;
@@ -75,11 +46,11 @@ const escapeRe = (text: string) => text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 
 /** A fresh browser context, signed in through the sign-in page as a person would (null: signed out). */
 async function openAs(email: string | null, viewport = VIEWPORT): Promise<Page> {
-  const context = await browser.newContext({ viewport, acceptDownloads: true, timezoneId: 'America/Chicago' });
+  const context = await app.browser.newContext({ viewport, acceptDownloads: true, timezoneId: 'America/Chicago' });
   const page = await context.newPage();
   lastPage = page;
   if (email) {
-    await page.goto(`${server.url}/sign-in`);
+    await page.goto(`${app.server.url}/sign-in`);
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password').fill(DEMO_PASSWORD);
     await page.getByRole('button', { name: 'Sign in' }).click();

@@ -5,57 +5,28 @@
 // unsubscribing by the link in a received message and not being sent the next campaign; a grower
 // booking a check-up from a reminder and the specialist seeing the request; the grower's own
 // preferences page.
-import fs from 'node:fs';
 import path from 'node:path';
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { PRE_SEASON_CHECKLIST } from '../../shared/calc/merge-template.js';
 import { daysBetween, windowStartIso } from '../../shared/calc/season-calendar.js';
-import { launchChromium, SCREENSHOT_DIR } from '../helpers/chromium.js';
-import { signedIn } from '../helpers/app.js';
-import { startServer, type RunningServer } from '../helpers/server-process.js';
+import { SCREENSHOT_DIR } from '../helpers/chromium.js';
+import { DEMO_PASSWORD, e2eEnv, useDemoApp } from '../helpers/demo-app.js';
 
-const port = process.env.E2E_PORT ?? '3550';
-const env = {
-  PORT: port,
-  DB_PORT: process.env.E2E_DB_PORT ?? '3551',
-  ROWPATH_DATA_DIR: `.data/e2e-${port}`,
-  CLIENT_DIST_DIR: `.data/dist-${port}`,
-  // The e2e server's own SMTP stand-in, apart from anyone else's.
-  LOCAL_SMTP_PORT: process.env.LOCAL_SMTP_PORT ?? String(Number(port) + 3),
-};
-const DEMO_PASSWORD = 'rowpath-demo';
+const env = e2eEnv({ port: '3550', dbPort: '3551', smtpPort: true });
 const EARLY_ORDER = 'Early-order reminder — 2027 season';
 const CHECKUP = 'Pre-season check-up — corn 2027';
 const SOY = 'Soybean set-up check — 2027';
 const NEXT_CAMPAIGN = 'Meter calibration week — corn 2027';
 const SPECIALISTS = ['specialist@rowpath.test', 'specialist2@rowpath.test'];
 
-let server: RunningServer;
-let browser: Browser;
-type ApiClient = Awaited<ReturnType<typeof signedIn>>;
-const clients = new Map<string, ApiClient>();
-
-async function apiAs(email: string): Promise<ApiClient> {
-  if (!clients.has(email)) clients.set(email, await signedIn(server.url, { email }, DEMO_PASSWORD));
-  return clients.get(email)!;
-}
-
-beforeAll(async () => {
-  fs.rmSync(env.ROWPATH_DATA_DIR, { recursive: true, force: true });
-  server = await startServer(env);
-  browser = await launchChromium();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const app = useDemoApp(env);
+const { apiAs } = app;
 
 const shot = (name: string) => path.join(SCREENSHOT_DIR, `reminders-${name}.png`);
 
 async function signIn(page: Page, email: string) {
-  await page.goto(`${server.url}/sign-in`);
+  await page.goto(`${app.server.url}/sign-in`);
   await page.getByLabel(/e-?mail/i).fill(email);
   await page.getByLabel(/password/i).fill(DEMO_PASSWORD);
   await page.getByRole('button', { name: /sign in/i }).click();
@@ -64,7 +35,7 @@ async function signIn(page: Page, email: string) {
 }
 
 async function withPage<T>(email: string | null, run: (page: Page) => Promise<T>, viewport = { width: 1280, height: 900 }): Promise<T> {
-  const context = await browser.newContext({ viewport });
+  const context = await app.browser.newContext({ viewport });
   const page = await context.newPage();
   try {
     if (email) await signIn(page, email);
@@ -197,14 +168,14 @@ describe('the demo’s campaigns for the coming season', () => {
 
   it('when a manager opens the season calendar, then each window can be changed and the published dates show beside the dealership’s own', async () => {
     await withPage('manager@rowpath.test', async (page) => {
-      await page.goto(`${server.url}/reminders`);
+      await page.goto(`${app.server.url}/reminders`);
       const row = page.locator('[data-calendar-row="ia-northeast|corn"]');
       await row.getByRole('button', { name: /Change/ }).click();
       const dialog = page.getByRole('dialog');
       await dialog.getByLabel('Window opens').fill('2027-04-20');
       await dialog.getByLabel('Window closes').fill('2027-04-10');
       await dialog.getByRole('button', { name: 'Save the dates' }).click();
-      // The shared schema refuses a window that closes before it opens, in the browser.
+      // The shared schema refuses a window that closes before it opens, in the app.browser.
       await dialog.getByText('The window must close after it opens').waitFor();
       await dialog.getByLabel('Window closes').fill('2027-05-08');
       await dialog.getByLabel('Why these dates (optional)').fill('Cold soils on our north-east accounts');
@@ -231,7 +202,7 @@ describe('previews', () => {
     const picks = [audience[0], audience[Math.floor(audience.length / 2)], audience[audience.length - 1]];
 
     await withPage('specialist@rowpath.test', async (page) => {
-      await page.goto(`${server.url}/reminders`);
+      await page.goto(`${app.server.url}/reminders`);
       await page.setViewportSize({ width: 1280, height: 1200 });
       await page.getByRole('link', { name: CHECKUP }).click();
       await page.waitForURL(new RegExp(`/reminders/campaigns/${checkup.id}$`));
@@ -292,7 +263,7 @@ describe('previews', () => {
 
     // On a tablet held upright the list still reads.
     await withPage('specialist@rowpath.test', async (page) => {
-      await page.goto(`${server.url}/reminders`);
+      await page.goto(`${app.server.url}/reminders`);
       await page.getByRole('link', { name: CHECKUP }).waitFor();
       await page.screenshot({ path: shot('campaigns-tablet'), fullPage: false });
     }, { width: 820, height: 1180 });
@@ -301,7 +272,7 @@ describe('previews', () => {
   it('when the manager types an unknown merge field, then the editor says so at once and will not save; the picker inserts a known field', async () => {
     const checkup = await campaignByName(CHECKUP);
     await withPage('manager@rowpath.test', async (page) => {
-      await page.goto(`${server.url}/reminders/campaigns/${checkup.id}`);
+      await page.goto(`${app.server.url}/reminders/campaigns/${checkup.id}`);
       const body = page.locator('[data-template-body]');
       await body.waitFor();
       await body.click();
@@ -338,7 +309,7 @@ describe('running the early-order campaign', () => {
     expect(audienceTotal).toBeGreaterThan(10);
 
     await withPage('admin@rowpath.test', async (page) => {
-      await page.goto(`${server.url}/reminders`);
+      await page.goto(`${app.server.url}/reminders`);
       await page.getByRole('link', { name: EARLY_ORDER }).click();
       await page.locator('[data-preview]').waitFor();
       const promised = await runInBrowser(page, 'run-confirm');
@@ -358,7 +329,7 @@ describe('running the early-order campaign', () => {
       expect(new Set(rows.map((r) => r.contactId)).size).toBe(promised);
       expect(new Set(received.items.map((m) => m.id)).size).toBe(promised);
 
-      await page.goto(`${server.url}/reminders/outbox?campaignId=${early.id}`);
+      await page.goto(`${app.server.url}/reminders/outbox?campaignId=${early.id}`);
       await expect.poll(() => page.locator('[data-status-chip="sent"]').textContent(), { timeout: 15_000 }).toBe(`Sent${promised}`);
       await expect(page.locator('[data-outbox-status="sent"]').count()).resolves.toBe(Math.min(promised, 50));
       await page.screenshot({ path: shot('outbox') });
@@ -378,7 +349,7 @@ describe('running the early-order campaign', () => {
 
       // One message as the grower reads it.
       const first = received.items[0];
-      await page.goto(`${server.url}/sent-mail/${first.id}`);
+      await page.goto(`${app.server.url}/sent-mail/${first.id}`);
       await page.locator('[data-sent-message]').waitFor();
       await expect(page.locator('h1').textContent()).resolves.toBe(first.subject);
       await expect(page.locator('[data-mail-to]').textContent()).resolves.toContain(first.envelopeTo[0]);
@@ -428,7 +399,7 @@ describe('unsubscribing by the link', () => {
     const offsetDays = daysBetween(today, windowStartIso(2027, '04-15'));
     expect(offsetDays).toBeGreaterThan(0);
     await withPage('admin@rowpath.test', async (page) => {
-      await page.goto(`${server.url}/reminders`);
+      await page.goto(`${app.server.url}/reminders`);
       await page.getByRole('link', { name: 'New campaign' }).click();
       await page.waitForURL(/\/reminders\/campaigns\/new$/);
       await page.getByLabel('Name', { exact: true }).fill(NEXT_CAMPAIGN);

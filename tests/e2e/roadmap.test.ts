@@ -4,43 +4,17 @@
 // the grower accepts the open 2027 quote in the portal and the specialist sees the items accepted.
 import fs from 'node:fs';
 import path from 'node:path';
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchChromium, SCREENSHOT_DIR } from '../helpers/chromium.js';
-import { signedIn } from '../helpers/app.js';
-import { startServer, type RunningServer } from '../helpers/server-process.js';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
+import { SCREENSHOT_DIR } from '../helpers/chromium.js';
+import { DEMO_PASSWORD, e2eEnv, useDemoApp } from '../helpers/demo-app.js';
 
-const port = process.env.E2E_PORT ?? '3530';
-const env = {
-  PORT: port,
-  DB_PORT: process.env.E2E_DB_PORT ?? '3531',
-  ROWPATH_DATA_DIR: `.data/e2e-${port}`,
-  CLIENT_DIST_DIR: `.data/dist-${port}`,
-};
-const DEMO_PASSWORD = 'rowpath-demo';
+const env = e2eEnv({ port: '3530', dbPort: '3531' });
 const SPECIALISTS = ['specialist@rowpath.test', 'specialist2@rowpath.test'];
 const WASTE_ACCOUNTS = ['Hesketh Farms', 'Brannigan Acres', 'Oldfield Family Farms'];
 
-let server: RunningServer;
-let browser: Browser;
-type ApiClient = Awaited<ReturnType<typeof signedIn>>;
-const clients = new Map<string, ApiClient>();
-
-async function apiAs(email: string): Promise<ApiClient> {
-  if (!clients.has(email)) clients.set(email, await signedIn(server.url, { email }, DEMO_PASSWORD));
-  return clients.get(email)!;
-}
-
-beforeAll(async () => {
-  fs.rmSync(env.ROWPATH_DATA_DIR, { recursive: true, force: true });
-  server = await startServer(env);
-  browser = await launchChromium();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const app = useDemoApp(env);
+const { apiAs } = app;
 
 interface DemoAccount {
   id: number;
@@ -65,7 +39,7 @@ async function demoAccount(name: string): Promise<DemoAccount> {
 }
 
 async function signIn(page: Page, email: string) {
-  await page.goto(`${server.url}/sign-in`);
+  await page.goto(`${app.server.url}/sign-in`);
   await page.getByLabel(/e-?mail/i).fill(email);
   await page.getByLabel(/password/i).fill(DEMO_PASSWORD);
   await page.getByRole('button', { name: /sign in/i }).click();
@@ -74,7 +48,7 @@ async function signIn(page: Page, email: string) {
 }
 
 async function withPage<T>(email: string, run: (page: Page) => Promise<T>, viewport = { width: 1280, height: 900 }): Promise<T> {
-  const context = await browser.newContext({ viewport, acceptDownloads: true });
+  const context = await app.browser.newContext({ viewport, acceptDownloads: true });
   const page = await context.newPage();
   try {
     await signIn(page, email);
@@ -113,7 +87,7 @@ describe('Rowpath’s order against a naive one', () => {
       expect(apiPlanner.wasteUsd).toBeLessThan(apiNaive.wasteUsd);
 
       await withPage(account.specialist, async (page) => {
-        await page.goto(`${server.url}/accounts/${account.id}/roadmap`);
+        await page.goto(`${app.server.url}/accounts/${account.id}/roadmap`);
         await page.getByRole('tab', { name: 'Against a naive order' }).click();
         await page.locator('[data-compare-view]').waitFor();
         expect(new URL(page.url()).searchParams.get('view')).toBe('compare');
@@ -141,7 +115,7 @@ describe('moving an item on the roadmap', () => {
     const account = await demoAccount('Hesketh Farms');
     const api = await apiAs(account.specialist);
     await withPage(account.specialist, async (page) => {
-      await page.goto(`${server.url}/accounts/${account.id}/roadmap`);
+      await page.goto(`${app.server.url}/accounts/${account.id}/roadmap`);
       const belt = card(page, 'KR-SD-500');
       await belt.waitFor();
       await expect(belt.getAttribute('data-season')).resolves.toBe('2029');
@@ -237,7 +211,7 @@ describe('a quote accepted in the grower portal', () => {
     });
 
     await withPage(account.specialist, async (page) => {
-      await page.goto(`${server.url}/accounts/${account.id}/roadmap`);
+      await page.goto(`${app.server.url}/accounts/${account.id}/roadmap`);
       await page.locator(`article[data-item-id="${quotedIds[0]}"]`).waitFor();
       for (const id of quotedIds) {
         const item = page.locator(`article[data-item-id="${id}"]`);

@@ -2,10 +2,9 @@
 // speed or tank size updates every figure before the next animation frame without a request,
 // the limiting supply and hydraulic verdict are shown in words, and the explicit calculator
 // refuses bad boxes before anything is sent.
-import fs from 'node:fs';
 import path from 'node:path';
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { beforeAll, describe, expect, it } from 'vitest';
 import type { SizingResult } from '@shared/calc/sizing';
 import type { SizingInput } from '@shared/schemas/sizing';
 import {
@@ -19,34 +18,17 @@ import {
   stopFigures,
   type FigureDef,
 } from '@/features/sizing/model/figures';
-import { launchChromium, SCREENSHOT_DIR } from '../helpers/chromium.js';
-import { signedIn } from '../helpers/app.js';
-import { startServer, type RunningServer } from '../helpers/server-process.js';
+import { SCREENSHOT_DIR } from '../helpers/chromium.js';
+import { DEMO_PASSWORD, e2eEnv, useDemoApp, type ApiClient } from '../helpers/demo-app.js';
 
-const port = process.env.E2E_PORT ?? '3520';
-const env = {
-  PORT: port,
-  DB_PORT: process.env.E2E_DB_PORT ?? '3521',
-  ROWPATH_DATA_DIR: `.data/e2e-${port}`,
-  CLIENT_DIST_DIR: `.data/dist-${port}`,
-};
-const DEMO_PASSWORD = 'rowpath-demo';
+const env = e2eEnv({ port: '3520', dbPort: '3521' });
 const SPECIALIST = 'specialist@rowpath.test';
 
-let server: RunningServer;
-let browser: Browser;
-let api: Awaited<ReturnType<typeof signedIn>>;
+const app = useDemoApp(env);
+let api: ApiClient;
 
 beforeAll(async () => {
-  fs.rmSync(env.ROWPATH_DATA_DIR, { recursive: true, force: true });
-  server = await startServer(env);
-  browser = await launchChromium();
-  api = await signedIn(server.url, { email: SPECIALIST }, DEMO_PASSWORD);
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
+  api = await app.apiAs(SPECIALIST);
 });
 
 // ---------------------------------------------------------------------------------------------
@@ -73,7 +55,7 @@ interface Shown {
 type Snapshot = Record<string, Shown>;
 
 async function signIn(page: Page) {
-  await page.goto(`${server.url}/sign-in`);
+  await page.goto(`${app.server.url}/sign-in`);
   await page.getByLabel(/e-?mail/i).fill(SPECIALIST);
   await page.getByLabel(/password/i).fill(DEMO_PASSWORD);
   await page.getByRole('button', { name: /sign in/i }).click();
@@ -203,11 +185,11 @@ describe('the Sizing panel of a demo planter', () => {
     expect(stored.status).toBe(200);
     const getAnswer = stored.body as SizingResult & { input: SizingInput };
 
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const context = await app.browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await context.newPage();
     try {
       await signIn(page);
-      await page.goto(`${server.url}/planters/${planter.id}/sizing`);
+      await page.goto(`${app.server.url}/planters/${planter.id}/sizing`);
       await page.locator('[data-figure="acresPerDay"]').first().waitFor();
       await page.waitForLoadState('networkidle');
       await expect(page.getByRole('heading', { level: 1 }).textContent()).resolves.toContain(planter.name);
@@ -323,11 +305,11 @@ describe('the Sizing panel of a demo planter', () => {
 
   it('when the panel is opened on a tablet, then the figures and the what-if boxes fit the width', async () => {
     const planter = await findDemoPlanter();
-    const context = await browser.newContext({ viewport: { width: 820, height: 1180 }, hasTouch: true });
+    const context = await app.browser.newContext({ viewport: { width: 820, height: 1180 }, hasTouch: true });
     const page = await context.newPage();
     try {
       await signIn(page);
-      await page.goto(`${server.url}/planters/${planter.id}/sizing`);
+      await page.goto(`${app.server.url}/planters/${planter.id}/sizing`);
       await page.locator('[data-figure="acresPerDay"]').first().waitFor();
       await page.waitForLoadState('networkidle');
       const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
@@ -341,7 +323,7 @@ describe('the Sizing panel of a demo planter', () => {
 
 describe('the Sizing calculator', () => {
   it('when the specialist opens it from the menu, then it computes from explicit boxes and refuses bad ones before sending anything', async () => {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const context = await app.browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await context.newPage();
     try {
       await signIn(page);

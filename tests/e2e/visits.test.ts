@@ -3,37 +3,17 @@
 // visit to another day in the calendar and sees that week's routes follow; a refused drag snaps
 // back with the server's reason; the map and calendar code never loads on sign-in or home; a
 // grower's calendar address serves an iCalendar feed of their own visits only.
-import fs from 'node:fs';
 import path from 'node:path';
-import type { Browser, Page, Response } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page, Response } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { checkCalendar } from '../../shared/calc/ical.js';
-import { launchChromium, SCREENSHOT_DIR } from '../helpers/chromium.js';
-import { startServer, type RunningServer } from '../helpers/server-process.js';
+import { SCREENSHOT_DIR } from '../helpers/chromium.js';
+import { DEMO_PASSWORD, e2eEnv, useDemoApp } from '../helpers/demo-app.js';
 
-const port = process.env.E2E_PORT ?? '3540';
-const env = {
-  PORT: port,
-  DB_PORT: process.env.E2E_DB_PORT ?? '3541',
-  ROWPATH_DATA_DIR: `.data/e2e-${port}`,
-  CLIENT_DIST_DIR: `.data/dist-${port}`,
-};
-const DEMO_PASSWORD = 'rowpath-demo';
+const env = e2eEnv({ port: '3540', dbPort: '3541' });
 const shot = (name: string) => path.join(SCREENSHOT_DIR, `visits-${name}.png`);
 
-let server: RunningServer;
-let browser: Browser;
-
-beforeAll(async () => {
-  fs.rmSync(env.ROWPATH_DATA_DIR, { recursive: true, force: true });
-  server = await startServer(env);
-  browser = await launchChromium();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.stop();
-});
+const app = useDemoApp(env);
 
 // The dealership's dates (America/Chicago), worked out here the way the app does.
 function chicagoToday(): string {
@@ -64,10 +44,10 @@ interface RouteDay {
 }
 
 async function signIn(role: string, viewport = { width: 1280, height: 900 }, onResponse?: (r: Response) => void): Promise<Page> {
-  const context = await browser.newContext({ viewport, timezoneId: 'UTC' });
+  const context = await app.browser.newContext({ viewport, timezoneId: 'UTC' });
   const page = await context.newPage();
   if (onResponse) page.on('response', onResponse);
-  await page.goto(`${server.url}/sign-in`);
+  await page.goto(`${app.server.url}/sign-in`);
   await page.getByLabel('E-mail').fill(`${role}@rowpath.test`);
   await page.getByLabel('Password').fill(DEMO_PASSWORD);
   await page.getByRole('button', { name: 'Sign in' }).click();
@@ -76,13 +56,13 @@ async function signIn(role: string, viewport = { width: 1280, height: 900 }, onR
 }
 
 async function currentRoutes(page: Page, weekStart: string): Promise<RouteDay[]> {
-  const response = await page.request.get(`${server.url}/api/week-plans/current?weekStart=${weekStart}&days=5`);
+  const response = await page.request.get(`${app.server.url}/api/week-plans/current?weekStart=${weekStart}&days=5`);
   expect(response.status()).toBe(200);
   return ((await response.json()) as { days: RouteDay[] }).days;
 }
 
 async function visitOf(page: Page, id: number): Promise<{ startsAt: string; version: number; accountName: string }> {
-  const response = await page.request.get(`${server.url}/api/visits/${id}`);
+  const response = await page.request.get(`${app.server.url}/api/visits/${id}`);
   expect(response.status()).toBe(200);
   return ((await response.json()) as { visit: { startsAt: string; version: number; accountName: string } }).visit;
 }
@@ -130,7 +110,7 @@ describe('a specialist plans next week and reschedules in the calendar', () => {
   it('when the specialist opens the map, then accounts show in the status scheme with a legend, filters narrow them and a marker opens the account summary', async () => {
     const page = await signIn('specialist');
     try {
-      await page.goto(`${server.url}/map`);
+      await page.goto(`${app.server.url}/map`);
       await page.getByRole('heading', { level: 1, name: 'Territory map' }).waitFor();
       await page.locator('.rp-marker, .rp-cluster').first().waitFor();
       await page.waitForLoadState('networkidle');
@@ -189,7 +169,7 @@ describe('a specialist plans next week and reschedules in the calendar', () => {
   it('when the specialist chooses visits for next week and plans it, then progress shows, day routes come back, and saving writes them to the calendar', async () => {
     const page = await signIn('specialist', { width: 1280, height: 1000 });
     try {
-      await page.goto(`${server.url}/week-plan`);
+      await page.goto(`${app.server.url}/week-plan`);
       await page.getByRole('heading', { level: 1, name: 'Week plan' }).waitFor();
       await expect(page.getByLabel('Week starting').inputValue()).resolves.toBe(nextMonday);
       await page.getByRole('heading', { name: /Visits to plan/ }).waitFor();
@@ -261,7 +241,7 @@ describe('a specialist plans next week and reschedules in the calendar', () => {
       expect(choice).not.toBeNull();
       const { stop, fromDay, toDay } = choice!;
 
-      await page.goto(`${server.url}/calendar?view=work_week&date=${nextMonday}`);
+      await page.goto(`${app.server.url}/calendar?view=work_week&date=${nextMonday}`);
       await page.getByRole('heading', { level: 1, name: 'Calendar' }).waitFor();
       const event = eventOf(page, stop.visitId);
       await event.waitFor();
@@ -312,7 +292,7 @@ describe('a specialist plans next week and reschedules in the calendar', () => {
       const blocker = day.stops.find((s) => s.visitId !== mover.visitId)!;
       const before = await visitOf(page, mover.visitId);
 
-      await page.goto(`${server.url}/calendar?view=work_week&date=${nextMonday}`);
+      await page.goto(`${app.server.url}/calendar?view=work_week&date=${nextMonday}`);
       const event = eventOf(page, mover.visitId);
       await event.waitFor();
       await page.waitForLoadState('networkidle');
@@ -362,7 +342,7 @@ describe('a specialist plans next week and reschedules in the calendar', () => {
     try {
       const day = planned.find((d) => d.stops.some((s) => !s.fixed))!;
       const victim = day.stops.filter((s) => !s.fixed).at(-1)!;
-      await page.goto(`${server.url}/calendar?view=work_week&date=${nextMonday}`);
+      await page.goto(`${app.server.url}/calendar?view=work_week&date=${nextMonday}`);
       const event = eventOf(page, victim.visitId);
       await event.waitFor();
       await event.focus();
@@ -373,14 +353,14 @@ describe('a specialist plans next week and reschedules in the calendar', () => {
       await expect.poll(() => page.evaluate(() => document.activeElement?.textContent?.trim())).toBe('Keep the visit');
       await page.keyboard.press('Enter');
       await panel.getByRole('button', { name: 'Cancel visit…' }).waitFor();
-      expect((await page.request.get(`${server.url}/api/visits/${victim.visitId}`).then((r) => r.json())).visit.status).toBe('planned');
+      expect((await page.request.get(`${app.server.url}/api/visits/${victim.visitId}`).then((r) => r.json())).visit.status).toBe('planned');
 
       await panel.getByRole('button', { name: 'Cancel visit…' }).click();
       await page.screenshot({ path: shot('visit-cancel-ask') });
       await panel.getByRole('button', { name: 'Yes, cancel it' }).click();
       await panel.getByRole('status').getByText('Visit cancelled').waitFor();
       await panel.getByText('Cancelled', { exact: true }).waitFor();
-      expect((await page.request.get(`${server.url}/api/visits/${victim.visitId}`).then((r) => r.json())).visit.status).toBe('cancelled');
+      expect((await page.request.get(`${app.server.url}/api/visits/${victim.visitId}`).then((r) => r.json())).visit.status).toBe('cancelled');
       await page.keyboard.press('Escape');
       await expect.poll(() => event.count()).toBe(0);
     } finally {
@@ -423,7 +403,7 @@ describe('a grower’s visits and calendar feed', () => {
       expect(uids.length).toBeGreaterThan(0);
 
       // Every event is one of the grower's own visits …
-      const own = (await (await page.request.get(`${server.url}/api/visits`)).json()) as { items: { id: number; accountId: number }[] };
+      const own = (await (await page.request.get(`${app.server.url}/api/visits`)).json()) as { items: { id: number; accountId: number }[] };
       const ownIds = new Set(own.items.map((v) => v.id));
       expect(new Set(own.items.map((v) => v.accountId)).size).toBe(1);
       for (const id of uids) expect(ownIds.has(id)).toBe(true);
@@ -439,7 +419,7 @@ describe('a grower’s visits and calendar feed', () => {
       // … and the specialist's other visits next week are not in it.
       const staff = await signIn('specialist');
       try {
-        const theirs = (await (await staff.request.get(`${server.url}/api/visits?from=${nextMonday}&to=${addDays(nextMonday, 7)}`)).json()) as { items: { id: number; accountId: number }[] };
+        const theirs = (await (await staff.request.get(`${app.server.url}/api/visits?from=${nextMonday}&to=${addDays(nextMonday, 7)}`)).json()) as { items: { id: number; accountId: number }[] };
         const others = theirs.items.filter((v) => !ownIds.has(v.id));
         expect(others.length).toBeGreaterThan(0);
         for (const v of others) expect(uids).not.toContain(v.id);
